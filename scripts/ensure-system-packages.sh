@@ -1,0 +1,23 @@
+#!/usr/bin/env bash
+# Makes sure the Debian packages the test suites need are installed (Chromium for browser tests).
+# As root on Debian it installs them; otherwise it stops and prints the exact command to run.
+set -euo pipefail
+
+missing=()
+[ -x /usr/bin/chromium ] || missing+=(chromium)
+
+if [ ${#missing[@]} -eq 0 ]; then
+  exit 0
+fi
+
+if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null 2>&1; then
+  echo "Installing system packages for the tests: ${missing[*]}"
+  export DEBIAN_FRONTEND=noninteractive
+  apt-get update -qq
+  apt-get install -y -qq "${missing[@]}" >/dev/null
+  exit 0
+fi
+
+echo "The tests need these Debian packages: ${missing[*]}" >&2
+echo "Install them with:  sudo apt-get update && sudo apt-get install -y ${missing[*]}" >&2
+exit 1

@@ -1,0 +1,27 @@
+import { EntitySchema } from "typeorm";
+import type { Zone } from "./zone.entity.js";
+
+export interface Bench {
+  id: number;
+  zoneId: number;
+  name: string;
+  /** Place in the walking order within the zone. */
+  position: number;
+  archivedAtMs: number | null;
+  zone?: Zone;
+}
+
+export const BenchEntity = new EntitySchema<Bench>({
+  name: "Bench",
+  tableName: "bench",
+  columns: {
+    id: { type: "integer", primary: true, generated: "increment" },
+    zoneId: { type: "integer", name: "zone_id" },
+    name: { type: "varchar", length: 120 },
+    position: { type: "integer", default: 0 },
+    archivedAtMs: { type: "integer", name: "archived_at_ms", nullable: true },
+  },
+  relations: {
+    zone: { type: "many-to-one", target: "Zone", joinColumn: { name: "zone_id" }, onDelete: "RESTRICT" },
+  },
+});

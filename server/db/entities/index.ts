@@ -1,0 +1,19 @@
+import { AppMetaEntity } from "./app-meta.entity.js";
+import { BenchEntity } from "./bench.entity.js";
+import { LatestReadingEntity, ReadingEntity } from "./reading.entity.js";
+import { SensorEntity } from "./sensor.entity.js";
+import { SiteEntity } from "./site.entity.js";
+import { BenchWindowEntity, ZoneWindowEntity } from "./window.entity.js";
+import { ZoneEntity } from "./zone.entity.js";
+
+export const ENTITIES = [
+  AppMetaEntity,
+  SiteEntity,
+  ZoneEntity,
+  BenchEntity,
+  SensorEntity,
+  ZoneWindowEntity,
+  BenchWindowEntity,
+  ReadingEntity,
+  LatestReadingEntity,
+];

@@ -1,0 +1,29 @@
+import { EntitySchema } from "typeorm";
+import type { Bench } from "./bench.entity.js";
+import type { SensorKind } from "../../../shared/schemas/quantities.js";
+
+export interface Sensor {
+  /** The device id, also its MQTT user name. */
+  id: string;
+  kind: SensorKind;
+  /** SHA-256 of the device secret (hex). Secrets are 32 random bytes, so a fast hash suffices. */
+  secretHash: string;
+  benchId: number | null;
+  createdAtMs: number;
+  bench?: Bench | null;
+}
+
+export const SensorEntity = new EntitySchema<Sensor>({
+  name: "Sensor",
+  tableName: "sensor",
+  columns: {
+    id: { type: "varchar", primary: true, length: 64 },
+    kind: { type: "varchar", length: 16 },
+    secretHash: { type: "varchar", name: "secret_hash", length: 64 },
+    benchId: { type: "integer", name: "bench_id", nullable: true },
+    createdAtMs: { type: "integer", name: "created_at_ms" },
+  },
+  relations: {
+    bench: { type: "many-to-one", target: "Bench", joinColumn: { name: "bench_id" }, onDelete: "SET NULL", nullable: true },
+  },
+});

@@ -1,0 +1,21 @@
+import { EntitySchema } from "typeorm";
+
+export interface Site {
+  id: number;
+  name: string;
+  /** IANA time zone of the greenhouse, for "night" and day boundaries. */
+  timeZone: string;
+  createdAtMs: number;
+}
+
+// EntitySchema rather than decorators: tsx, vitest and tsc then agree without decorator metadata.
+export const SiteEntity = new EntitySchema<Site>({
+  name: "Site",
+  tableName: "site",
+  columns: {
+    id: { type: "integer", primary: true, generated: "increment" },
+    name: { type: "varchar", length: 120 },
+    timeZone: { type: "varchar", name: "time_zone", length: 64, default: "UTC" },
+    createdAtMs: { type: "integer", name: "created_at_ms" },
+  },
+});

@@ -1,0 +1,26 @@
+import { EntitySchema } from "typeorm";
+import type { Site } from "./site.entity.js";
+
+export interface Zone {
+  id: number;
+  siteId: number;
+  name: string;
+  position: number;
+  archivedAtMs: number | null;
+  site?: Site;
+}
+
+export const ZoneEntity = new EntitySchema<Zone>({
+  name: "Zone",
+  tableName: "zone",
+  columns: {
+    id: { type: "integer", primary: true, generated: "increment" },
+    siteId: { type: "integer", name: "site_id" },
+    name: { type: "varchar", length: 120 },
+    position: { type: "integer", default: 0 },
+    archivedAtMs: { type: "integer", name: "archived_at_ms", nullable: true },
+  },
+  relations: {
+    site: { type: "many-to-one", target: "Site", joinColumn: { name: "site_id" }, onDelete: "RESTRICT" },
+  },
+});

@@ -1,0 +1,183 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { existsSync } from "node:fs";
+import { createServer, type Server } from "node:http";
+import type { AddressInfo } from "node:net";
+import { dirname, join, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+import type { DataSource } from "typeorm";
+import { classifyValue } from "../shared/domain/window-status.js";
+import { createApp } from "./app.js";
+import { ConfigError, type Env } from "./config/env.js";
+import { createDataSource, rawDatabase } from "./db/data-source.js";
+import { isDemoDatabase, isEmptyDatabase, rotateDemoSecrets, seedDemoNursery, writeDemoCredentials } from "./demo/seed.js";
+import { createLogger, type Logger } from "./lib/logger.js";
+import { Metrics } from "./lib/metrics.js";
+import { ReadingWriter } from "./modules/readings/reading-writer.js";
+import { ReadingsRepository } from "./modules/readings/readings.repository.js";
+import { ReadingsService } from "./modules/readings/readings.service.js";
+import { SensorsService } from "./modules/sensors/sensors.service.js";
+import { LiveHub } from "./modules/stream/live-hub.js";
+import { WindowsService } from "./modules/windows/windows.service.js";
+import { ZonesService } from "./modules/zones/zones.service.js";
+import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
+import { createIngest } from "./mqtt/ingest.js";
+
+export const PROJECT_ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
+
+export interface RunningServer {
+  httpPort: number;
+  mqttPort: number;
+  appUrl: string;
+  demo: boolean;
+  /** Path of demo-sensors.json in demo mode. */
+  demoCredentialsPath: string | null;
+  dataSource: DataSource;
+  metrics: Metrics;
+  logger: Logger;
+  stop(): Promise<void>;
+}
+
+export interface StartOptions {
+  logger?: Logger;
+  /** Folder of the built client; default dist/ in the project. */
+  staticDir?: string;
+}
+
+async function resolveDemoMode(env: Env, dataSource: DataSource): Promise<boolean> {
+  if (env.DEMO === "1") return true;
+  if (env.DEMO === "0") return false;
+  return (await isEmptyDatabase(dataSource)) || (await isDemoDatabase(dataSource));
+}
+
+function startSimulator(env: Env, mqttPort: number, credentialsPath: string, logger: Logger): ChildProcess {
+  const tsxCli = fileURLToPath(import.meta.resolve("tsx/cli"));
+  const args = [
+    tsxCli,
+    "--tsconfig",
+    join(PROJECT_ROOT, "tsconfig.server.json"),
+    join(PROJECT_ROOT, "sensors-sim/index.ts"),
+    "--broker",
+    `mqtt://127.0.0.1:${mqttPort}`,
+    "--credentials",
+    credentialsPath,
+    "--interval",
+    env.SIM_INTERVAL,
+    "--qos",
+    "1",
+  ];
+  const child = spawn(process.execPath, args, { cwd: PROJECT_ROOT, stdio: ["ignore", "ignore", "pipe"] });
+  child.stderr?.on("data", (chunk: Buffer) => logger.warn({ sim: chunk.toString().trim() }, "simulator"));
+  child.on("exit", (code, signal) => logger.info({ code, signal }, "simulator stopped"));
+  logger.info({ pid: child.pid }, "simulator started");
+  return child;
+}
+
+/** Start everything in order: database → broker → HTTP → simulator. stop() undoes it in reverse. */
+export async function start(env: Env, options: StartOptions = {}): Promise<RunningServer> {
+  const logger = options.logger ?? createLogger(env.LOG_LEVEL);
+  if (env.MQTT_URL) {
+    // TODO(#11): connect to an external broker through a shared subscription.
+    throw new ConfigError(["MQTT_URL: an external broker is not supported yet; unset it to use the embedded broker"]);
+  }
+
+  const dataSource = createDataSource(env.DATABASE_PATH);
+  await dataSource.initialize();
+  await dataSource.runMigrations({ transaction: "each" });
+
+  const demo = await resolveDemoMode(env, dataSource);
+  if (!demo && !env.JWT_SECRET) {
+    await dataSource.destroy();
+    throw new ConfigError(["JWT_SECRET: required outside demo mode (at least 32 characters)"]);
+  }
+  let demoCredentialsPath: string | null = null;
+  if (demo) {
+    demoCredentialsPath = join(dirname(resolve(env.DATABASE_PATH)), "demo-sensors.json");
+    if (await isEmptyDatabase(dataSource)) {
+      writeDemoCredentials(demoCredentialsPath, await seedDemoNursery(dataSource));
+      logger.info({ demoCredentialsPath }, "seeded the demo nursery");
+    } else if (!existsSync(demoCredentialsPath)) {
+      writeDemoCredentials(demoCredentialsPath, await rotateDemoSecrets(dataSource));
+      logger.info({ demoCredentialsPath }, "demo sensor secrets renewed");
+    }
+  }
+
+  const metrics = new Metrics();
+  const hub = new LiveHub();
+  const windows = new WindowsService(dataSource);
+  await windows.ready();
+  const sensors = new SensorsService(dataSource);
+  await sensors.reload();
+  const repository = new ReadingsRepository(rawDatabase(dataSource));
+  const writer = new ReadingWriter(
+    repository,
+    (stored) =>
+      hub.publishReadings(
+        stored.flatMap((r) =>
+          r.benchId === null
+            ? []
+            : [{ ...r, benchId: r.benchId, status: classifyValue(r.value, windows.windowFor(r.benchId, r.quantity)) }],
+        ),
+      ),
+    metrics,
+    logger,
+  );
+  metrics.addGauge("benchwarden_stream_clients", "Open live-stream connections", () => hub.clientCount);
+
+  let broker: EmbeddedBroker | null = null;
+  let http: Server | null = null;
+  let simulator: ChildProcess | null = null;
+  let stopping: Promise<void> | null = null;
+
+  const stop = () =>
+    (stopping ??= (async () => {
+      if (simulator && simulator.exitCode === null) {
+        const exited = new Promise((r) => simulator!.once("exit", r));
+        simulator.kill("SIGTERM");
+        await Promise.race([exited, new Promise((r) => setTimeout(r, 3000))]);
+      }
+      hub.close();
+      if (http) {
+        http.closeAllConnections();
+        await new Promise<void>((r) => http!.close(() => r()));
+      }
+      if (broker) await broker.close();
+      writer.close();
+      if (dataSource.isInitialized) await dataSource.destroy();
+      logger.info("stopped");
+    })());
+
+  try {
+    broker = await startBroker(env.MQTT_HOST, env.MQTT_PORT, {
+      sensors,
+      ingest: createIngest({ sensors, writer, metrics, logger }),
+      logger,
+    });
+
+    const app = createApp({
+      dataSource,
+      zones: new ZonesService(dataSource, repository, windows),
+      readings: new ReadingsService(dataSource, repository, windows),
+      hub,
+      metrics,
+      logger,
+      staticDir: options.staticDir ?? join(PROJECT_ROOT, "dist"),
+    });
+    http = createServer(app);
+    await new Promise<void>((resolveListen, reject) => {
+      http!.once("error", reject);
+      http!.listen(env.PORT, env.HOST, () => resolveListen());
+    });
+    const httpPort = (http.address() as AddressInfo).port;
+    const appUrl = env.APP_URL ?? `http://localhost:${httpPort}`;
+    logger.info({ port: httpPort, appUrl, demo }, "HTTP server listening");
+
+    if (demo && demoCredentialsPath && (env.SIM ?? true)) {
+      simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
+    }
+
+    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, dataSource, metrics, logger, stop };
+  } catch (err) {
+    await stop();
+    throw err;
+  }
+}

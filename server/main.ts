@@ -1,0 +1,48 @@
+import { ConfigError, loadDotEnv, parseEnv } from "./config/env.js";
+import { start } from "./index.js";
+
+// The process entry point: configuration, start, signals. Everything else lives in start().
+async function main(): Promise<void> {
+  loadDotEnv();
+  let env;
+  try {
+    env = parseEnv();
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      console.error(`Benchwarden cannot start.\n${err.message}`);
+      process.exit(1);
+    }
+    throw err;
+  }
+
+  const server = await start(env).catch((err: unknown) => {
+    console.error(err instanceof ConfigError ? `Benchwarden cannot start.\n${err.message}` : err);
+    process.exit(1);
+  });
+
+  const fatal = (err: unknown) => {
+    server.logger.fatal({ err }, "unexpected error; stopping");
+    void server.stop().finally(() => process.exit(1));
+  };
+  process.on("unhandledRejection", fatal);
+  process.on("uncaughtException", fatal);
+  for (const signal of ["SIGINT", "SIGTERM"] as const) {
+    process.once(signal, () => {
+      server.logger.info({ signal }, "stopping");
+      void server.stop().then(() => process.exit(0));
+    });
+  }
+
+  const lines = [
+    "",
+    `  Benchwarden is running at ${server.appUrl}`,
+    `  Sensors publish to mqtt://localhost:${server.mqttPort}`,
+  ];
+  if (server.demo) {
+    lines.push(`  Demo nursery: sensor credentials in ${server.demoCredentialsPath}`);
+    lines.push(`  ${env.SIM ?? true ? "The simulator is publishing demo readings." : "Simulator off (SIM=0)."}`);
+  }
+  console.log(lines.join("\n") + "\n");
+}
+
+void main();

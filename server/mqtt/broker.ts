@@ -1,0 +1,94 @@
+import { createServer, type AddressInfo, type Server } from "node:net";
+import { Aedes, type AuthenticateError, type Client } from "aedes";
+import type { Logger } from "../lib/logger.js";
+import type { SensorsService } from "../modules/sensors/sensors.service.js";
+import type { IngestReadings } from "./ingest.js";
+import { parseSensorTopic } from "./topics.js";
+
+export interface EmbeddedBroker {
+  port: number;
+  close(): Promise<void>;
+}
+
+export interface BrokerDeps {
+  sensors: SensorsService;
+  ingest: IngestReadings;
+  logger: Logger;
+  onSensorOffline?: (sensorId: string) => void;
+}
+
+function authError(message: string, returnCode: 4 | 5): AuthenticateError {
+  return Object.assign(new Error(message), { returnCode }) as AuthenticateError;
+}
+
+/**
+ * The embedded aedes broker. Broker hooks hold no business logic: authenticate asks the sensors
+ * service, authorizePublish lets a sensor write only its own topics and hands readings to ingest.
+ * aedes sends the PUBACK of a QoS 1 publish only when authorizePublish calls back (STACK.md), so
+ * calling back after the commit acknowledges a reading only once it is stored.
+ */
+export async function startBroker(host: string, port: number, deps: BrokerDeps): Promise<EmbeddedBroker> {
+  const { sensors, ingest, logger } = deps;
+  const sensorOf = new WeakMap<Client, string>();
+
+  const broker = await Aedes.createBroker({
+    authenticate: (client, username, password, done) => {
+      if (!username || !password) return done(authError("sensor id and secret required", 4), false);
+      sensors.authenticate(username, password.toString("utf8")).then(
+        (ok) => {
+          if (!ok) {
+            logger.warn({ sensorId: username, clientId: client.id }, "MQTT sign-in refused");
+            return done(authError("bad sensor id or secret", 4), false);
+          }
+          sensorOf.set(client, username);
+          done(null, true);
+        },
+        (err) => {
+          logger.error({ err }, "sensor authentication failed");
+          done(authError("server unavailable", 5), false);
+        },
+      );
+    },
+    authorizePublish: (client, packet, callback) => {
+      const sensorId = client ? sensorOf.get(client) : undefined;
+      const topic = parseSensorTopic(packet.topic);
+      if (!sensorId || !topic || topic.sensorId !== sensorId) {
+        logger.warn({ sensorId, topic: packet.topic }, "publish to a topic the sensor does not own refused");
+        return callback(new Error("not allowed"));
+      }
+      if (topic.kind === "status") return callback(null);
+      ingest(sensorId, packet.payload as Buffer).then(
+        () => callback(null),
+        // No PUBACK: the connection closes and the sensor re-sends what it was not told was saved.
+        (err) => callback(err instanceof Error ? err : new Error(String(err))),
+      );
+    },
+    // Sensors only publish; nothing in the fleet needs to read another sensor's data.
+    authorizeSubscribe: (_client, _subscription, callback) => callback(new Error("subscriptions are not offered"), null),
+  });
+
+  broker.on("publish", (packet) => {
+    const topic = parseSensorTopic(packet.topic);
+    if (topic?.kind === "status" && packet.payload.toString() === "offline") {
+      logger.info({ sensorId: topic.sensorId }, "sensor reported offline (last will)");
+      deps.onSensorOffline?.(topic.sensorId);
+    }
+  });
+  broker.on("clientError", (client, err) => logger.debug({ clientId: client.id, err: err.message }, "MQTT client error"));
+
+  const server: Server = createServer(broker.handle);
+  await new Promise<void>((resolve, reject) => {
+    server.once("error", reject);
+    server.listen(port, host, () => resolve());
+  });
+  const boundPort = (server.address() as AddressInfo).port;
+  logger.info({ port: boundPort }, "MQTT broker listening");
+
+  return {
+    port: boundPort,
+    close: () =>
+      new Promise<void>((resolve) => {
+        broker.close(() => server.close(() => resolve()));
+      }),
+  };
+}

@@ -1,0 +1,111 @@
+import http from "node:http";
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { problemSchema } from "../../shared/api-error.js";
+import { benchReadingsResponseSchema } from "../../shared/schemas/readings.js";
+import { readingsEventSchema } from "../../shared/schemas/stream.js";
+import { zonesResponseSchema } from "../../shared/schemas/zones.js";
+import { connectSensor, startTestServer, type TestServer } from "../support/test-server.js";
+
+let server: TestServer;
+
+beforeAll(async () => {
+  server = await startTestServer();
+});
+
+afterAll(async () => {
+  await server.cleanup();
+});
+
+describe("HTTP API", () => {
+  it("lists the demo nursery's three zones and twelve benches with their windows", async () => {
+    const res = await request(server.baseUrl).get("/api/zones").expect(200);
+    const { zones } = zonesResponseSchema.parse(res.body);
+    expect(zones).toHaveLength(3);
+    expect(zones.flatMap((z) => z.benches)).toHaveLength(12);
+    const bench = zones[0]!.benches[0]!;
+    expect(bench.windows.find((w) => w.quantity === "air.temperature")).toMatchObject({ min: 21.1, max: 26.7 });
+    expect(bench.status).toBe("unknown");
+  });
+
+  it("returns a bench's series in time buckets with min, mean and max", async () => {
+    const credential = server.credentials.find((c) => c.kind === "air")!;
+    const client = await connectSensor(server, credential);
+    const nowS = Math.floor(Date.now() / 1000);
+    // Three readings in the same minute, one an hour earlier.
+    const pack = [
+      { bn: `${credential.id}:`, bt: nowS - 3600, n: "air.temperature", u: "Cel", v: 20 },
+      { n: "air.temperature", u: "Cel", v: 22, t: 3540 },
+      { n: "air.temperature", u: "Cel", v: 24, t: 3550 },
+      { n: "air.temperature", u: "Cel", v: 26, t: 3560 },
+    ];
+    await client.publishAsync(`benchwarden/v1/sensors/${credential.id}/readings`, JSON.stringify(pack), { qos: 1 });
+    await client.endAsync();
+
+    const res = await request(server.baseUrl).get(`/api/benches/${credential.benchId}/readings`).expect(200);
+    const body = benchReadingsResponseSchema.parse(res.body);
+    expect(body.toMs - body.fromMs).toBe(24 * 3600 * 1000);
+    expect(body.series.map((s) => s.quantity)).toContain("medium.moisture");
+    const air = body.series.find((s) => s.quantity === "air.temperature")!;
+    expect(air.points.length).toBeLessThanOrEqual(500);
+    expect(air.points.map((p) => p.count).reduce((a, b) => a + b, 0)).toBe(4);
+    const last = air.points.at(-1)!;
+    expect(last).toMatchObject({ min: 22, max: 26, mean: 24, count: 3 });
+  });
+
+  it("when the range is bad, then it answers 400 with problem details naming the field", async () => {
+    const res = await request(server.baseUrl).get("/api/benches/1/readings?from=yesterday").expect(400);
+    expect(res.headers["content-type"]).toMatch(/application\/problem\+json/);
+    const problem = problemSchema.parse(JSON.parse(res.text));
+    expect(problem.code).toBe("invalid-input");
+    expect(problem.errors?.[0]?.path).toBe("from");
+  });
+
+  it("when the bench does not exist, then it answers 404 bench-not-found", async () => {
+    const res = await request(server.baseUrl).get("/api/benches/9999/readings").expect(404);
+    expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("bench-not-found");
+  });
+
+  it("when the API path is unknown, then it answers 404 problem details, not the app page", async () => {
+    const res = await request(server.baseUrl).get("/api/nothing-here").expect(404);
+    expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("route-not-found");
+  });
+
+  it("when a JSON body is malformed, then it answers 400 problem details", async () => {
+    const res = await request(server.baseUrl).post("/api/zones").set("Content-Type", "application/json").send("{oops").expect(400);
+    expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("entity-parse-failed");
+  });
+
+  it("serves /healthz and Prometheus /metrics", async () => {
+    await request(server.baseUrl).get("/healthz").expect(200, { status: "ok" });
+    const res = await request(server.baseUrl).get("/metrics").expect(200);
+    expect(res.headers["content-type"]).toMatch(/^text\/plain; version=0\.0\.4/);
+    expect(res.text).toContain("# TYPE benchwarden_readings_stored_total counter");
+  });
+
+  it("streams committed readings as server-sent events", async () => {
+    const credential = server.credentials.find((c) => c.kind === "medium")!;
+    const received = new Promise<unknown>((resolve, reject) => {
+      const req = http.get(`${server.baseUrl}/api/stream`, (res) => {
+        expect(res.headers["content-type"]).toBe("text/event-stream");
+        let buffer = "";
+        res.on("data", (chunk: Buffer) => {
+          buffer += chunk.toString();
+          const match = /event: readings\ndata: (.*)\n\n/.exec(buffer);
+          if (match) {
+            req.destroy();
+            resolve(JSON.parse(match[1]!));
+          }
+        });
+      });
+      req.on("error", reject);
+      setTimeout(() => reject(new Error("no readings event within 3 s")), 3000);
+    });
+    await new Promise((r) => setTimeout(r, 100));
+    const client = await connectSensor(server, credential);
+    await client.publishAsync(`benchwarden/v1/sensors/${credential.id}/readings`, JSON.stringify([{ n: "medium.moisture", u: "/", v: 0.61 }]), { qos: 1 });
+    await client.endAsync();
+    const event = readingsEventSchema.parse(await received);
+    expect(event.readings).toContainEqual(expect.objectContaining({ sensorId: credential.id, quantity: "medium.moisture", value: 0.61, status: "above" }));
+  });
+});

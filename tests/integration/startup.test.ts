@@ -1,0 +1,59 @@
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { ConfigError, parseEnv } from "../../server/config/env.js";
+import { createDataSource } from "../../server/db/data-source.js";
+import { PROJECT_ROOT } from "../../server/index.js";
+
+describe("configuration", () => {
+  it("when PORT is not a number, then parsing names PORT and the value given", () => {
+    expect(() => parseEnv({ PORT: "abc" })).toThrow(ConfigError);
+    expect(() => parseEnv({ PORT: "abc" })).toThrow(/PORT: .*\(got "abc"\)/);
+  });
+
+  it("names every bad key in one message", () => {
+    try {
+      parseEnv({ PORT: "99999", MQTT_PORT: "x", APP_URL: "not a url", DEMO: "yes" });
+      expect.unreachable();
+    } catch (err) {
+      expect((err as ConfigError).problems.map((p) => p.split(":")[0])).toEqual(["PORT", "MQTT_PORT", "APP_URL", "DEMO"]);
+    }
+  });
+
+  it("when the server is started with PORT=abc, then it exits non-zero with a message naming PORT", () => {
+    const result = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "--tsconfig", "tsconfig.server.json", "server/main.ts"], {
+      cwd: PROJECT_ROOT,
+      env: { ...process.env, PORT: "abc" },
+      encoding: "utf8",
+      timeout: 20_000,
+    });
+    expect(result.status).toBe(1);
+    expect(result.stderr).toContain("PORT");
+    expect(result.stderr).toContain('"abc"');
+  });
+
+  it("when demo mode is off and JWT_SECRET is missing, then start-up stops naming JWT_SECRET", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "benchwarden-cfg-"));
+    const { start } = await import("../../server/index.js");
+    await expect(
+      start(parseEnv({ DEMO: "0", PORT: "0", MQTT_PORT: "0", DATABASE_PATH: join(dir, "db.sqlite"), LOG_LEVEL: "silent" })),
+    ).rejects.toThrow(/JWT_SECRET/);
+    rmSync(dir, { recursive: true, force: true });
+  });
+});
+
+describe("database", () => {
+  it("the migrations build exactly the schema the entities describe", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "benchwarden-db-"));
+    const dataSource = createDataSource(join(dir, "db.sqlite"));
+    await dataSource.initialize();
+    await dataSource.runMigrations();
+    const pending = await dataSource.driver.createSchemaBuilder().log();
+    expect(pending.upQueries.map((q) => q.query)).toEqual([]);
+    expect((await dataSource.query("PRAGMA journal_mode"))[0].journal_mode).toBe("wal");
+    await dataSource.destroy();
+    rmSync(dir, { recursive: true, force: true });
+  });
+});

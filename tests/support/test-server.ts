@@ -1,0 +1,69 @@
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import mqtt, { type MqttClient } from "mqtt";
+import { parseEnv } from "../../server/config/env.js";
+import type { DemoSensorCredential } from "../../server/demo/seed.js";
+import { start, type RunningServer } from "../../server/index.js";
+
+export interface TestServer extends RunningServer {
+  baseUrl: string;
+  credentials: DemoSensorCredential[];
+  dir: string;
+  cleanup(): Promise<void>;
+}
+
+/**
+ * The real server on free loopback ports over a new SQLite file, seeded with the demo nursery,
+ * simulator off so the test decides every reading.
+ */
+export async function startTestServer(env: Record<string, string> = {}, options: { staticDir?: string } = {}): Promise<TestServer> {
+  const dir = mkdtempSync(join(tmpdir(), "benchwarden-test-"));
+  const server = await start(
+    parseEnv({
+      PORT: "0",
+      HOST: "127.0.0.1",
+      MQTT_PORT: "0",
+      MQTT_HOST: "127.0.0.1",
+      DATABASE_PATH: join(dir, "benchwarden.sqlite"),
+      DEMO: "1",
+      SIM: "0",
+      LOG_LEVEL: "silent",
+      ...env,
+    }),
+    { staticDir: options.staticDir ?? join(dir, "no-client") },
+  );
+  const credentials = JSON.parse(readFileSync(server.demoCredentialsPath!, "utf8")) as DemoSensorCredential[];
+  return {
+    ...server,
+    baseUrl: `http://127.0.0.1:${server.httpPort}`,
+    credentials,
+    dir,
+    cleanup: async () => {
+      await server.stop();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** A real mqtt.js client signed in as a sensor. */
+export async function connectSensor(server: RunningServer, credential: { id: string; secret: string }): Promise<MqttClient> {
+  return mqtt.connectAsync(`mqtt://127.0.0.1:${server.mqttPort}`, {
+    username: credential.id,
+    password: credential.secret,
+    clientId: `test-${credential.id}-${Math.random().toString(16).slice(2, 8)}`,
+    reconnectPeriod: 0,
+    connectTimeout: 5000,
+  });
+}
+
+/** Poll until check() returns a value (not undefined), or fail after timeoutMs. */
+export async function waitFor<T>(check: () => Promise<T | undefined>, timeoutMs = 2000, stepMs = 50): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await check();
+    if (value !== undefined) return value;
+    if (Date.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, stepMs));
+  }
+}
