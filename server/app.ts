@@ -1,16 +1,24 @@
 import { existsSync } from "node:fs";
 import { join } from "node:path";
+import cookieParser from "cookie-parser";
 import express, { type Express } from "express";
 import helmet from "helmet";
 import type { DataSource } from "typeorm";
+import { RouteTable, tokenFromRequest, verifySessionToken, type Principal } from "./lib/auth.js";
 import { apiNotFound, createErrorHandler } from "./lib/error-handler.js";
 import type { Logger } from "./lib/logger.js";
 import type { Metrics } from "./lib/metrics.js";
 import { healthRoutes } from "./modules/health/health.routes.js";
+import { mailRoutes } from "./modules/mail/mail.routes.js";
 import { readingsRoutes } from "./modules/readings/readings.routes.js";
 import type { ReadingsService } from "./modules/readings/readings.service.js";
+import { sensorsRoutes } from "./modules/sensors/sensors.routes.js";
+import type { SensorsService } from "./modules/sensors/sensors.service.js";
+import { sessionRoutes } from "./modules/session/session.routes.js";
 import type { LiveHub } from "./modules/stream/live-hub.js";
 import { streamRoutes } from "./modules/stream/stream.routes.js";
+import { usersRoutes } from "./modules/users/users.routes.js";
+import type { UsersService } from "./modules/users/users.service.js";
 import { zonesRoutes } from "./modules/zones/zones.routes.js";
 import type { ZonesService } from "./modules/zones/zones.service.js";
 
@@ -18,15 +26,19 @@ export interface AppDeps {
   dataSource: DataSource;
   zones: ZonesService;
   readings: ReadingsService;
+  users: UsersService;
+  sensors: SensorsService;
   hub: LiveHub;
   metrics: Metrics;
   logger: Logger;
+  jwtSecret: string;
+  sessionHours: number;
   /** Folder of the built client (vite build); served with a fallback to index.html for client routes. */
   staticDir?: string;
 }
 
 /** The Express app with every route, no listen(): tests drive it with supertest. */
-export function createApp(deps: AppDeps): Express {
+export function createApp(deps: AppDeps): Express & { locals: { routeTable: RouteTable } } {
   const app = express();
   app.disable("x-powered-by");
   app.set("trust proxy", "loopback");
@@ -34,9 +46,12 @@ export function createApp(deps: AppDeps): Express {
     helmet({
       contentSecurityPolicy: {
         directives: {
-          // recharts sets inline style attributes on its SVG.
+          // Only our own origin: fonts are shipped, nothing is fetched elsewhere. recharts sets inline styles.
+          "default-src": ["'self'"],
           "style-src": ["'self'", "'unsafe-inline'"],
           "img-src": ["'self'", "data:", "blob:"],
+          "font-src": ["'self'"],
+          "connect-src": ["'self'"],
           // Plain HTTP on a greenhouse LAN is common; do not force https sub-resources.
           "upgrade-insecure-requests": null,
         },
@@ -46,9 +61,29 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
   app.use(express.json({ limit: "100kb" }));
+  app.use(express.urlencoded({ extended: false, limit: "100kb" }));
+  app.use(cookieParser());
 
-  app.use(healthRoutes(deps.dataSource, deps.metrics));
-  app.use("/api", zonesRoutes(deps.zones), readingsRoutes(deps.readings), streamRoutes(deps.hub));
+  // Who is asking: a valid session token for an active user whose password has not changed since.
+  const identify = async (req: express.Request): Promise<Principal | null> => {
+    const token = tokenFromRequest(req);
+    const claims = token ? verifySessionToken(token, deps.jwtSecret) : null;
+    if (!claims) return null;
+    const user = await deps.users.findActive(claims.userId);
+    if (!user || user.passwordVersion !== claims.passwordVersion) return null;
+    return { userId: user.id, role: user.role };
+  };
+  const table = new RouteTable(identify);
+  app.locals.routeTable = table;
+
+  app.use(healthRoutes(table, deps.dataSource, deps.metrics));
+  app.use(sessionRoutes(table, deps.users, { secret: deps.jwtSecret, sessionHours: deps.sessionHours }));
+  app.use(usersRoutes(table, deps.users));
+  app.use(sensorsRoutes(table, deps.sensors));
+  app.use(mailRoutes(table, deps.dataSource));
+  app.use(zonesRoutes(table, deps.zones));
+  app.use(readingsRoutes(table, deps.readings));
+  app.use(streamRoutes(table, deps.hub));
   app.use("/api", apiNotFound);
 
   const staticDir = deps.staticDir;
@@ -58,5 +93,5 @@ export function createApp(deps: AppDeps): Express {
   }
 
   app.use(createErrorHandler(deps.logger));
-  return app;
+  return app as Express & { locals: { routeTable: RouteTable } };
 }

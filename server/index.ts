@@ -1,21 +1,35 @@
 import { spawn, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
 import { existsSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import type { Express } from "express";
 import type { DataSource } from "typeorm";
 import { classifyValue } from "../shared/domain/window-status.js";
 import { createApp } from "./app.js";
 import { ConfigError, type Env } from "./config/env.js";
 import { createDataSource, rawDatabase } from "./db/data-source.js";
-import { isDemoDatabase, isEmptyDatabase, rotateDemoSecrets, seedDemoNursery, writeDemoCredentials } from "./demo/seed.js";
+import { AppMetaEntity } from "./db/entities/app-meta.entity.js";
+import { UserEntity } from "./db/entities/user.entity.js";
+import {
+  DEMO_USERS,
+  isDemoDatabase,
+  isEmptyDatabase,
+  rotateDemoSecrets,
+  seedDemoNursery,
+  writeDemoCredentials,
+} from "./demo/seed.js";
 import { createLogger, type Logger } from "./lib/logger.js";
 import { Metrics } from "./lib/metrics.js";
+import { createMailer, type Mailer } from "./mail/mailer.js";
+import { startSmtpSink, type SmtpSink } from "./mail/smtp-sink.js";
 import { ReadingWriter } from "./modules/readings/reading-writer.js";
 import { ReadingsRepository } from "./modules/readings/readings.repository.js";
 import { ReadingsService } from "./modules/readings/readings.service.js";
 import { SensorsService } from "./modules/sensors/sensors.service.js";
+import { UsersService } from "./modules/users/users.service.js";
 import { LiveHub } from "./modules/stream/live-hub.js";
 import { WindowsService } from "./modules/windows/windows.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
@@ -31,6 +45,11 @@ export interface RunningServer {
   demo: boolean;
   /** Path of demo-sensors.json in demo mode. */
   demoCredentialsPath: string | null;
+  /** Port of the local SMTP sink, when mail is caught rather than relayed. */
+  smtpSinkPort: number | null;
+  users: UsersService;
+  /** The Express app, for tests that inspect its routes. */
+  app: Express;
   dataSource: DataSource;
   metrics: Metrics;
   logger: Logger;
@@ -41,6 +60,19 @@ export interface StartOptions {
   logger?: Logger;
   /** Folder of the built client; default dist/ in the project. */
   staticDir?: string;
+}
+
+/**
+ * The demo signs sessions with a random secret kept in the database, so a restart does not sign
+ * everyone out and no secret has to be configured to try the product.
+ */
+async function demoJwtSecret(dataSource: DataSource): Promise<string> {
+  const meta = dataSource.getRepository(AppMetaEntity);
+  const found = await meta.findOneBy({ key: "demo-jwt-secret" });
+  if (found) return found.value;
+  const value = randomBytes(48).toString("base64url");
+  await meta.save({ key: "demo-jwt-secret", value });
+  return value;
 }
 
 async function resolveDemoMode(env: Env, dataSource: DataSource): Promise<boolean> {
@@ -90,10 +122,12 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     throw new ConfigError(["JWT_SECRET: required outside demo mode (at least 32 characters)"]);
   }
   let demoCredentialsPath: string | null = null;
+  let seedUsers = false;
   if (demo) {
     demoCredentialsPath = join(dirname(resolve(env.DATABASE_PATH)), "demo-sensors.json");
     if (await isEmptyDatabase(dataSource)) {
       writeDemoCredentials(demoCredentialsPath, await seedDemoNursery(dataSource));
+      seedUsers = true;
       logger.info({ demoCredentialsPath }, "seeded the demo nursery");
     } else if (!existsSync(demoCredentialsPath)) {
       writeDemoCredentials(demoCredentialsPath, await rotateDemoSecrets(dataSource));
@@ -101,13 +135,35 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     }
   }
 
+  const jwtSecret = env.JWT_SECRET ?? (await demoJwtSecret(dataSource));
   const metrics = new Metrics();
+  let sink: SmtpSink | null = null;
+  if (!env.SMTP_URL) {
+    sink = await startSmtpSink(dataSource, logger);
+    if (!demo) logger.warn("SMTP_URL is not set: e-mail is kept by the local sink (readable by admins in the app), not delivered");
+  }
+  const mailer: Mailer = createMailer({ smtpUrl: env.SMTP_URL, sinkPort: sink?.port, from: env.MAIL_FROM, logger });
+  const appUrlFor = (port: number) => env.APP_URL ?? `http://localhost:${port}`;
+  // The HTTP port is known only after listen(); links are built later, so resolve lazily.
+  let resolvedAppUrl = env.APP_URL ?? `http://localhost:${env.PORT}`;
+  const users = new UsersService(dataSource, {
+    secret: jwtSecret,
+    get appUrl() {
+      return resolvedAppUrl;
+    },
+    mailer,
+    logger,
+  });
+  if (seedUsers || (demo && (await dataSource.getRepository(UserEntity).count()) === 0)) {
+    for (const u of DEMO_USERS) await users.createWithPassword({ ...u, password: env.DEMO_PASSWORD });
+    logger.info("seeded the demo users");
+  }
   const hub = new LiveHub();
   const windows = new WindowsService(dataSource);
   await windows.ready();
-  const sensors = new SensorsService(dataSource);
-  await sensors.reload();
   const repository = new ReadingsRepository(rawDatabase(dataSource));
+  const sensors = new SensorsService(dataSource, repository);
+  await sensors.reload();
   const writer = new ReadingWriter(
     repository,
     (stored) =>
@@ -142,6 +198,8 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       }
       if (broker) await broker.close();
       writer.close();
+      mailer.close();
+      if (sink) await sink.close();
       if (dataSource.isInitialized) await dataSource.destroy();
       logger.info("stopped");
     })());
@@ -149,14 +207,20 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   try {
     broker = await startBroker(env.MQTT_HOST, env.MQTT_PORT, {
       sensors,
+      metrics,
       ingest: createIngest({ sensors, writer, metrics, logger }),
       logger,
     });
+    sensors.onRevoked = (sensorId) => broker?.disconnectSensor(sensorId);
 
     const app = createApp({
       dataSource,
       zones: new ZonesService(dataSource, repository, windows),
       readings: new ReadingsService(dataSource, repository, windows),
+      users,
+      sensors,
+      jwtSecret,
+      sessionHours: env.SESSION_HOURS,
       hub,
       metrics,
       logger,
@@ -168,14 +232,15 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       http!.listen(env.PORT, env.HOST, () => resolveListen());
     });
     const httpPort = (http.address() as AddressInfo).port;
-    const appUrl = env.APP_URL ?? `http://localhost:${httpPort}`;
+    const appUrl = appUrlFor(httpPort);
+    resolvedAppUrl = appUrl;
     logger.info({ port: httpPort, appUrl, demo }, "HTTP server listening");
 
     if (demo && demoCredentialsPath && (env.SIM ?? true)) {
       simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, dataSource, metrics, logger, stop };
+    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, users, app, dataSource, metrics, logger, stop };
   } catch (err) {
     await stop();
     throw err;

@@ -1,4 +1,5 @@
 import { ConfigError, loadDotEnv, parseEnv } from "./config/env.js";
+import { DEMO_USERS } from "./demo/seed.js";
 import { start } from "./index.js";
 
 // The process entry point: configuration, start, signals. Everything else lives in start().
@@ -39,9 +40,12 @@ async function main(): Promise<void> {
     `  Sensors publish to mqtt://localhost:${server.mqttPort}`,
   ];
   if (server.demo) {
-    lines.push(`  Demo nursery: sensor credentials in ${server.demoCredentialsPath}`);
+    lines.push("", "  Demo nursery: sign in as any of these, password " + JSON.stringify(env.DEMO_PASSWORD));
+    for (const u of DEMO_USERS) lines.push(`    ${u.role.padEnd(8)} ${u.email}`);
+    lines.push("", `  Sensor credentials: ${server.demoCredentialsPath}`);
     lines.push(`  ${env.SIM ?? true ? "The simulator is publishing demo readings." : "Simulator off (SIM=0)."}`);
   }
+  if (server.smtpSinkPort !== null) lines.push(`  E-mail is caught by the local sink (port ${server.smtpSinkPort}); admins read it in the app.`);
   console.log(lines.join("\n") + "\n");
 }
 

@@ -16,6 +16,7 @@ export const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Benchwarden <benchwarden@localhost>").describe("Sender of every e-mail"),
   APP_URL: z.url().optional().describe("Public address of the app, used in e-mailed links; default http://localhost:PORT"),
   JWT_SECRET: z.string().min(32, "must be at least 32 characters").optional().describe("Secret that signs sessions and e-mailed links; required outside demo mode"),
+  SESSION_HOURS: z.coerce.number().positive().max(24 * 31).default(12).describe("How long a sign-in lasts: one shift by default"),
   DEMO: z.enum(["0", "1", "auto"]).default("auto").describe("1 = seed and run the invented demo nursery; auto = demo only on a new or demo database"),
   DEMO_PASSWORD: z.string().min(8, "must be at least 8 characters").default("bench-demo-2026").describe("Password of the demo users"),
   SIM: flag.optional().describe("1 = start the sensor simulator with the server (default: on in demo mode)"),

@@ -6,6 +6,7 @@ import { AppMetaEntity } from "../db/entities/app-meta.entity.js";
 import { BenchEntity } from "../db/entities/bench.entity.js";
 import { SensorEntity } from "../db/entities/sensor.entity.js";
 import { SiteEntity } from "../db/entities/site.entity.js";
+import { UserEntity } from "../db/entities/user.entity.js";
 import { ZoneWindowEntity } from "../db/entities/window.entity.js";
 import { ZoneEntity } from "../db/entities/zone.entity.js";
 import { generateSecret, hashSecret } from "../modules/sensors/sensors.service.js";
@@ -49,8 +50,9 @@ export async function isDemoDatabase(dataSource: DataSource): Promise<boolean> {
   return (await dataSource.getRepository(AppMetaEntity).countBy({ key: DEMO_META_KEY })) > 0;
 }
 
+/** Nothing in it yet: no site and no user (an admin made with admin:create counts as something). */
 export async function isEmptyDatabase(dataSource: DataSource): Promise<boolean> {
-  return (await dataSource.getRepository(SiteEntity).count()) === 0;
+  return (await dataSource.getRepository(SiteEntity).count()) === 0 && (await dataSource.getRepository(UserEntity).count()) === 0;
 }
 
 /**
@@ -114,3 +116,11 @@ export async function rotateDemoSecrets(dataSource: DataSource): Promise<DemoSen
 export function writeDemoCredentials(path: string, credentials: DemoSensorCredential[]): void {
   writeFileSync(path, JSON.stringify(credentials, null, 2) + "\n", { mode: 0o600 });
 }
+
+/** The demo's people, one per role (PRODUCT.md §4): invented names, `<role>@nursery.test`. */
+export const DEMO_USERS = [
+  { name: "Imogen Vale", email: "admin@nursery.test", role: "admin" },
+  { name: "Tobias Fenwick", email: "manager@nursery.test", role: "manager" },
+  { name: "Marisol Ortega", email: "grower@nursery.test", role: "grower" },
+  { name: "Dev Kapoor", email: "viewer@nursery.test", role: "viewer" },
+] as const;

@@ -51,6 +51,7 @@ export class Metrics {
   readonly readingsRejected = new Counter("benchwarden_readings_rejected_total", "Readings or packs refused at ingest, by reason");
   readonly mqttMessages = new Counter("benchwarden_mqtt_messages_total", "MQTT reading messages received");
   readonly writeBatches = new Counter("benchwarden_write_batches_total", "Ingest write transactions committed");
+  readonly mqttRefused = new Counter("benchwarden_mqtt_refused_total", "MQTT connections, publishes and subscriptions refused, by reason");
   private readonly gauges: Gauge[] = [];
 
   addGauge(name: string, help: string, read: () => number): void {
@@ -58,7 +59,7 @@ export class Metrics {
   }
 
   render(): string {
-    const counters = [this.readingsStored, this.readingsDuplicate, this.readingsRejected, this.mqttMessages, this.writeBatches];
+    const counters = [this.readingsStored, this.readingsDuplicate, this.readingsRejected, this.mqttMessages, this.writeBatches, this.mqttRefused];
     return [...counters.map((c) => c.render()), ...this.gauges.map((g) => g.render())].join("\n") + "\n";
   }
 }

@@ -1,17 +1,21 @@
 import { createServer, type AddressInfo, type Server } from "node:net";
 import { Aedes, type AuthenticateError, type Client } from "aedes";
 import type { Logger } from "../lib/logger.js";
+import type { Metrics } from "../lib/metrics.js";
 import type { SensorsService } from "../modules/sensors/sensors.service.js";
 import type { IngestReadings } from "./ingest.js";
 import { parseSensorTopic } from "./topics.js";
 
 export interface EmbeddedBroker {
   port: number;
+  /** Drop a sensor's connection (its secret was rotated or it was disabled). */
+  disconnectSensor(sensorId: string): void;
   close(): Promise<void>;
 }
 
 export interface BrokerDeps {
   sensors: SensorsService;
+  metrics: Metrics;
   ingest: IngestReadings;
   logger: Logger;
   onSensorOffline?: (sensorId: string) => void;
@@ -28,19 +32,25 @@ function authError(message: string, returnCode: 4 | 5): AuthenticateError {
  * calling back after the commit acknowledges a reading only once it is stored.
  */
 export async function startBroker(host: string, port: number, deps: BrokerDeps): Promise<EmbeddedBroker> {
-  const { sensors, ingest, logger } = deps;
+  const { sensors, ingest, logger, metrics } = deps;
   const sensorOf = new WeakMap<Client, string>();
+  const clientsOf = new Map<string, Set<Client>>();
 
   const broker = await Aedes.createBroker({
     authenticate: (client, username, password, done) => {
-      if (!username || !password) return done(authError("sensor id and secret required", 4), false);
+      if (!username || !password) {
+        metrics.mqttRefused.inc({ reason: "no-credentials" });
+        return done(authError("sensor id and secret required", 4), false);
+      }
       sensors.authenticate(username, password.toString("utf8")).then(
         (ok) => {
           if (!ok) {
+            metrics.mqttRefused.inc({ reason: "bad-credentials" });
             logger.warn({ sensorId: username, clientId: client.id }, "MQTT sign-in refused");
             return done(authError("bad sensor id or secret", 4), false);
           }
           sensorOf.set(client, username);
+          clientsOf.set(username, (clientsOf.get(username) ?? new Set()).add(client));
           done(null, true);
         },
         (err) => {
@@ -53,6 +63,7 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
       const sensorId = client ? sensorOf.get(client) : undefined;
       const topic = parseSensorTopic(packet.topic);
       if (!sensorId || !topic || topic.sensorId !== sensorId) {
+        metrics.mqttRefused.inc({ reason: "foreign-topic" });
         logger.warn({ sensorId, topic: packet.topic }, "publish to a topic the sensor does not own refused");
         return callback(new Error("not allowed"));
       }
@@ -64,7 +75,10 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
       );
     },
     // Sensors only publish; nothing in the fleet needs to read another sensor's data.
-    authorizeSubscribe: (_client, _subscription, callback) => callback(new Error("subscriptions are not offered"), null),
+    authorizeSubscribe: (_client, _subscription, callback) => {
+      metrics.mqttRefused.inc({ reason: "subscribe" });
+      callback(null, null); // a 0x80 "failure" return code in the SUBACK
+    },
   });
 
   broker.on("publish", (packet) => {
@@ -73,6 +87,10 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
       logger.info({ sensorId: topic.sensorId }, "sensor reported offline (last will)");
       deps.onSensorOffline?.(topic.sensorId);
     }
+  });
+  broker.on("clientDisconnect", (client) => {
+    const sensorId = sensorOf.get(client);
+    if (sensorId) clientsOf.get(sensorId)?.delete(client);
   });
   broker.on("clientError", (client, err) => logger.debug({ clientId: client.id, err: err.message }, "MQTT client error"));
 
@@ -86,6 +104,10 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
 
   return {
     port: boundPort,
+    disconnectSensor: (sensorId) => {
+      for (const client of clientsOf.get(sensorId) ?? []) client.close();
+      clientsOf.delete(sensorId);
+    },
     close: () =>
       new Promise<void>((resolve) => {
         broker.close(() => server.close(() => resolve()));

@@ -5,12 +5,14 @@ import { problemSchema } from "../../shared/api-error.js";
 import { benchReadingsResponseSchema } from "../../shared/schemas/readings.js";
 import { readingsEventSchema } from "../../shared/schemas/stream.js";
 import { zonesResponseSchema } from "../../shared/schemas/zones.js";
-import { connectSensor, startTestServer, type TestServer } from "../support/test-server.js";
+import { connectSensor, signIn, startTestServer, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
+let token: string;
 
 beforeAll(async () => {
   server = await startTestServer();
+  token = await signIn(server, "viewer");
 });
 
 afterAll(async () => {
@@ -19,7 +21,7 @@ afterAll(async () => {
 
 describe("HTTP API", () => {
   it("lists the demo nursery's three zones and twelve benches with their windows", async () => {
-    const res = await request(server.baseUrl).get("/api/zones").expect(200);
+    const res = await request(server.baseUrl).get("/api/zones").auth(token, { type: "bearer" }).expect(200);
     const { zones } = zonesResponseSchema.parse(res.body);
     expect(zones).toHaveLength(3);
     expect(zones.flatMap((z) => z.benches)).toHaveLength(12);
@@ -42,7 +44,7 @@ describe("HTTP API", () => {
     await client.publishAsync(`benchwarden/v1/sensors/${credential.id}/readings`, JSON.stringify(pack), { qos: 1 });
     await client.endAsync();
 
-    const res = await request(server.baseUrl).get(`/api/benches/${credential.benchId}/readings`).expect(200);
+    const res = await request(server.baseUrl).get(`/api/benches/${credential.benchId}/readings`).auth(token, { type: "bearer" }).expect(200);
     const body = benchReadingsResponseSchema.parse(res.body);
     expect(body.toMs - body.fromMs).toBe(24 * 3600 * 1000);
     expect(body.series.map((s) => s.quantity)).toContain("medium.moisture");
@@ -54,7 +56,7 @@ describe("HTTP API", () => {
   });
 
   it("when the range is bad, then it answers 400 with problem details naming the field", async () => {
-    const res = await request(server.baseUrl).get("/api/benches/1/readings?from=yesterday").expect(400);
+    const res = await request(server.baseUrl).get("/api/benches/1/readings?from=yesterday").auth(token, { type: "bearer" }).expect(400);
     expect(res.headers["content-type"]).toMatch(/application\/problem\+json/);
     const problem = problemSchema.parse(JSON.parse(res.text));
     expect(problem.code).toBe("invalid-input");
@@ -62,17 +64,17 @@ describe("HTTP API", () => {
   });
 
   it("when the bench does not exist, then it answers 404 bench-not-found", async () => {
-    const res = await request(server.baseUrl).get("/api/benches/9999/readings").expect(404);
+    const res = await request(server.baseUrl).get("/api/benches/9999/readings").auth(token, { type: "bearer" }).expect(404);
     expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("bench-not-found");
   });
 
   it("when the API path is unknown, then it answers 404 problem details, not the app page", async () => {
-    const res = await request(server.baseUrl).get("/api/nothing-here").expect(404);
+    const res = await request(server.baseUrl).get("/api/nothing-here").auth(token, { type: "bearer" }).expect(404);
     expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("route-not-found");
   });
 
   it("when a JSON body is malformed, then it answers 400 problem details", async () => {
-    const res = await request(server.baseUrl).post("/api/zones").set("Content-Type", "application/json").send("{oops").expect(400);
+    const res = await request(server.baseUrl).post("/api/session").set("Content-Type", "application/json").send("{oops").expect(400);
     expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("entity-parse-failed");
   });
 
@@ -86,7 +88,7 @@ describe("HTTP API", () => {
   it("streams committed readings as server-sent events", async () => {
     const credential = server.credentials.find((c) => c.kind === "medium")!;
     const received = new Promise<unknown>((resolve, reject) => {
-      const req = http.get(`${server.baseUrl}/api/stream`, (res) => {
+      const req = http.get(`${server.baseUrl}/api/stream`, { headers: { Authorization: `Bearer ${token}` } }, (res) => {
         expect(res.headers["content-type"]).toBe("text/event-stream");
         let buffer = "";
         res.on("data", (chunk: Buffer) => {

@@ -3,13 +3,15 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { zonesResponseSchema, type BenchSummary } from "../../shared/schemas/zones.js";
 import { rawDatabase } from "../../server/db/data-source.js";
-import { connectSensor, startTestServer, waitFor, type TestServer } from "../support/test-server.js";
+import { connectSensor, signIn, startTestServer, waitFor, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
+let token: string;
 const clients: MqttClient[] = [];
 
 beforeAll(async () => {
   server = await startTestServer();
+  token = await signIn(server, "viewer");
 });
 
 afterAll(async () => {
@@ -25,7 +27,7 @@ async function sensor(kind: "air" | "medium" | "combined", index = 0) {
 }
 
 async function benchSummary(benchId: number): Promise<BenchSummary> {
-  const res = await request(server.baseUrl).get("/api/zones").expect(200);
+  const res = await request(server.baseUrl).get("/api/zones").auth(token, { type: "bearer" }).expect(200);
   const { zones } = zonesResponseSchema.parse(res.body);
   return zones.flatMap((z) => z.benches).find((b) => b.id === benchId)!;
 }

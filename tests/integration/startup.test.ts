@@ -44,6 +44,39 @@ describe("configuration", () => {
   });
 });
 
+describe("first run outside demo mode", () => {
+  it("admin:create makes the first admin, who can then sign in to a server that is not in demo mode", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "benchwarden-admin-"));
+    const databasePath = join(dir, "db.sqlite");
+    const cli = spawnSync(
+      process.execPath,
+      ["node_modules/tsx/dist/cli.mjs", "--tsconfig", "tsconfig.server.json", "server/cli/create-admin.ts", "--email", "Owner@Example.test", "--name", "Wren Ashby", "--password-stdin"],
+      { cwd: PROJECT_ROOT, env: { ...process.env, DATABASE_PATH: databasePath }, input: "correct horse battery\n", encoding: "utf8", timeout: 30_000 },
+    );
+    expect(cli.stderr).toBe("");
+    expect(cli.status).toBe(0);
+    expect(cli.stdout).toContain("Admin Wren Ashby <owner@example.test> created");
+
+    const { start } = await import("../../server/index.js");
+    const server = await start(
+      parseEnv({ PORT: "0", HOST: "127.0.0.1", MQTT_PORT: "0", MQTT_HOST: "127.0.0.1", DATABASE_PATH: databasePath, JWT_SECRET: "x".repeat(40), LOG_LEVEL: "silent" }),
+    );
+    try {
+      expect(server.demo).toBe(false);
+      const res = await fetch(`http://127.0.0.1:${server.httpPort}/api/session`, {
+        method: "POST",
+        headers: { "Content-Type": "application/json" },
+        body: JSON.stringify({ email: "owner@example.test", password: "correct horse battery" }),
+      });
+      expect(res.status).toBe(200);
+      expect((await res.json()).user.role).toBe("admin");
+    } finally {
+      await server.stop();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
 describe("database", () => {
   it("the migrations build exactly the schema the entities describe", async () => {
     const dir = mkdtempSync(join(tmpdir(), "benchwarden-db-"));

@@ -29,6 +29,7 @@ export async function startTestServer(env: Record<string, string> = {}, options:
       DEMO: "1",
       SIM: "0",
       LOG_LEVEL: "silent",
+      DEMO_PASSWORD: TEST_DEMO_PASSWORD,
       ...env,
     }),
     { staticDir: options.staticDir ?? join(dir, "no-client") },
@@ -66,4 +67,19 @@ export async function waitFor<T>(check: () => Promise<T | undefined>, timeoutMs 
     if (Date.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`);
     await new Promise((r) => setTimeout(r, stepMs));
   }
+}
+
+export const TEST_DEMO_PASSWORD = "bench-demo-2026";
+
+/** Signs in as the demo user of a role and returns the session token (for a Bearer header). */
+export async function signIn(server: { baseUrl: string }, role: "admin" | "manager" | "grower" | "viewer"): Promise<string> {
+  const res = await fetch(`${server.baseUrl}/api/session`, {
+    method: "POST",
+    headers: { "Content-Type": "application/json" },
+    body: JSON.stringify({ email: `${role}@nursery.test`, password: TEST_DEMO_PASSWORD }),
+  });
+  if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${await res.text()}`);
+  const cookie = res.headers.getSetCookie().find((c) => c.startsWith("bw_session="));
+  if (!cookie) throw new Error("no session cookie");
+  return cookie.slice("bw_session=".length).split(";")[0]!;
 }

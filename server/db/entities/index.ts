@@ -1,8 +1,10 @@
 import { AppMetaEntity } from "./app-meta.entity.js";
 import { BenchEntity } from "./bench.entity.js";
+import { CaughtMailEntity } from "./caught-mail.entity.js";
 import { LatestReadingEntity, ReadingEntity } from "./reading.entity.js";
 import { SensorEntity } from "./sensor.entity.js";
 import { SiteEntity } from "./site.entity.js";
+import { SignInFailureEntity, UserEntity } from "./user.entity.js";
 import { BenchWindowEntity, ZoneWindowEntity } from "./window.entity.js";
 import { ZoneEntity } from "./zone.entity.js";
 
@@ -16,4 +18,7 @@ export const ENTITIES = [
   BenchWindowEntity,
   ReadingEntity,
   LatestReadingEntity,
+  UserEntity,
+  SignInFailureEntity,
+  CaughtMailEntity,
 ];

@@ -9,6 +9,8 @@ export interface Sensor {
   /** SHA-256 of the device secret (hex). Secrets are 32 random bytes, so a fast hash suffices. */
   secretHash: string;
   benchId: number | null;
+  /** When an admin disabled it; a disabled sensor cannot sign in. */
+  disabledAtMs: number | null;
   createdAtMs: number;
   bench?: Bench | null;
 }
@@ -21,6 +23,7 @@ export const SensorEntity = new EntitySchema<Sensor>({
     kind: { type: "varchar", length: 16 },
     secretHash: { type: "varchar", name: "secret_hash", length: 64 },
     benchId: { type: "integer", name: "bench_id", nullable: true },
+    disabledAtMs: { type: "integer", name: "disabled_at_ms", nullable: true },
     createdAtMs: { type: "integer", name: "created_at_ms" },
   },
   relations: {

@@ -1,4 +1,5 @@
 import { Initial1796172181320 } from "./1796172181320-initial.js";
+import { UsersAndMail1796172613849 } from "./1796172613849-users-and-mail.js";
 
 /** Every migration, oldest first. Classes rather than a glob, so tsx, vitest and the CLI load the same set. */
-export const MIGRATIONS = [Initial1796172181320];
+export const MIGRATIONS = [Initial1796172181320, UsersAndMail1796172613849];

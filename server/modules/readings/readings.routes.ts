@@ -1,13 +1,14 @@
 import { Router } from "express";
 import { z } from "zod";
 import { seriesQuerySchema } from "../../../shared/schemas/readings.js";
+import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { ReadingsService } from "./readings.service.js";
 
 const benchParamsSchema = z.object({ benchId: z.coerce.number().int().positive() });
 
-export function readingsRoutes(readings: ReadingsService): Router {
-  const router = Router();
-  router.get("/benches/:benchId/readings", async (req, res) => {
+export function readingsRoutes(table: RouteTable, readings: ReadingsService): Router {
+  const r = table.router("/api", Router());
+  r.get("/benches/:benchId/readings", EVERYONE_SIGNED_IN, async (req, res) => {
     const { benchId } = benchParamsSchema.parse(req.params);
     // A query given as plain milliseconds reads as a number, not a date string.
     const raw = Object.fromEntries(
@@ -15,5 +16,5 @@ export function readingsRoutes(readings: ReadingsService): Router {
     );
     res.json(await readings.benchSeries(benchId, seriesQuerySchema.parse(raw)));
   });
-  return router;
+  return r.router;
 }

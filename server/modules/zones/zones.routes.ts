@@ -1,12 +1,13 @@
 import { Router } from "express";
 import type { ZonesResponse } from "../../../shared/schemas/zones.js";
+import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { ZonesService } from "./zones.service.js";
 
-export function zonesRoutes(zones: ZonesService): Router {
-  const router = Router();
-  router.get("/zones", async (_req, res) => {
+export function zonesRoutes(table: RouteTable, zones: ZonesService): Router {
+  const r = table.router("/api", Router());
+  r.get("/zones", EVERYONE_SIGNED_IN, async (_req, res) => {
     const body: ZonesResponse = { zones: await zones.listZones() };
     res.json(body);
   });
-  return router;
+  return r.router;
 }
