@@ -69,7 +69,7 @@ describe("first run outside demo mode", () => {
         body: JSON.stringify({ email: "owner@example.test", password: "correct horse battery" }),
       });
       expect(res.status).toBe(200);
-      expect((await res.json()).user.role).toBe("admin");
+      expect(((await res.json()) as { user: { role: string } }).user.role).toBe("admin");
     } finally {
       await server.stop();
       rmSync(dir, { recursive: true, force: true });
