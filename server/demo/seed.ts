@@ -1,5 +1,6 @@
 import { writeFileSync } from "node:fs";
 import type { DataSource } from "typeorm";
+import { fahrenheitToCelsius } from "../../shared/domain/units.js";
 import type { WindowedQuantity } from "../../shared/schemas/quantities.js";
 import type { SensorKind } from "../../shared/schemas/quantities.js";
 import { AppMetaEntity } from "../db/entities/app-meta.entity.js";
@@ -27,7 +28,7 @@ export interface DemoSensorCredential {
  * bands are our own starting points (common practice), to be tuned by the manager.
  */
 export const DEMO_WINDOW: Record<WindowedQuantity, { min: number; max: number; delayS: number; hysteresis: number }> = {
-  "air.temperature": { min: 21.1, max: 26.7, delayS: 600, hysteresis: 0.5 },
+  "air.temperature": { min: fahrenheitToCelsius(70), max: fahrenheitToCelsius(80), delayS: 600, hysteresis: 0.5 },
   "air.humidity": { min: 65, max: 95, delayS: 1800, hysteresis: 3 },
   "medium.temperature": { min: 21, max: 25, delayS: 900, hysteresis: 0.5 },
   "medium.moisture": { min: 0.35, max: 0.55, delayS: 3600, hysteresis: 0.02 },
