@@ -8,9 +8,13 @@ import { RouteTable, tokenFromRequest, verifySessionToken, type Principal } from
 import { apiNotFound, createErrorHandler } from "./lib/error-handler.js";
 import type { Logger } from "./lib/logger.js";
 import type { Metrics } from "./lib/metrics.js";
+import { alertsRoutes } from "./modules/alerts/alerts.routes.js";
+import type { AlertsService } from "./modules/alerts/alerts.service.js";
 import { healthRoutes } from "./modules/health/health.routes.js";
 import { mailRoutes } from "./modules/mail/mail.routes.js";
 import { readingsRoutes } from "./modules/readings/readings.routes.js";
+import { rotaRoutes } from "./modules/rota/rota.routes.js";
+import type { RotaService } from "./modules/rota/rota.service.js";
 import type { ReadingsService } from "./modules/readings/readings.service.js";
 import { sensorsRoutes } from "./modules/sensors/sensors.routes.js";
 import type { SensorsService } from "./modules/sensors/sensors.service.js";
@@ -28,6 +32,8 @@ export interface AppDeps {
   readings: ReadingsService;
   users: UsersService;
   sensors: SensorsService;
+  alerts: AlertsService;
+  rota: RotaService;
   hub: LiveHub;
   metrics: Metrics;
   logger: Logger;
@@ -84,6 +90,8 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
   app.use(zonesRoutes(table, deps.zones));
   app.use(readingsRoutes(table, deps.readings));
   app.use(streamRoutes(table, deps.hub));
+  app.use(alertsRoutes(table, deps.alerts));
+  app.use(rotaRoutes(table, deps.rota));
   app.use("/api", apiNotFound);
 
   const staticDir = deps.staticDir;

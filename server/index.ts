@@ -23,8 +23,15 @@ import {
 } from "./demo/seed.js";
 import { createLogger, type Logger } from "./lib/logger.js";
 import { Metrics } from "./lib/metrics.js";
-import { createMailer, type Mailer } from "./mail/mailer.js";
+import { AlertEngine } from "./alerts/engine.js";
+import { LayoutCache } from "./alerts/layout-cache.js";
+import { Notifier } from "./alerts/notifier.js";
+import { DutyShiftEntity } from "./db/entities/alert.entity.js";
+import { createSmtpTransport } from "./mail/mailer.js";
+import { Outbox } from "./mail/outbox.js";
 import { startSmtpSink, type SmtpSink } from "./mail/smtp-sink.js";
+import { AlertsService } from "./modules/alerts/alerts.service.js";
+import { RotaService } from "./modules/rota/rota.service.js";
 import { ReadingWriter } from "./modules/readings/reading-writer.js";
 import { ReadingsRepository } from "./modules/readings/readings.repository.js";
 import { ReadingsService } from "./modules/readings/readings.service.js";
@@ -47,9 +54,13 @@ export interface RunningServer {
   demoCredentialsPath: string | null;
   /** Port of the local SMTP sink, when mail is caught rather than relayed. */
   smtpSinkPort: number | null;
+  /** The running sink (tests stop it to play a relay outage). */
+  smtpSink: SmtpSink | null;
   users: UsersService;
   /** The Express app, for tests that inspect its routes. */
   app: Express;
+  /** The alert pipeline, for tests that drive time: pass() runs one evaluation → grouping → sending round. */
+  alerts: { engine: AlertEngine; notifier: Notifier; outbox: Outbox; service: AlertsService; pass(): Promise<void> };
   dataSource: DataSource;
   metrics: Metrics;
   logger: Logger;
@@ -96,6 +107,9 @@ function startSimulator(env: Env, mqttPort: number, credentialsPath: string, log
     env.SIM_INTERVAL,
     "--qos",
     "1",
+    // The server logs the simulator's stderr; periodic progress lines would only be noise there.
+    "--progress",
+    "0",
   ];
   const child = spawn(process.execPath, args, { cwd: PROJECT_ROOT, stdio: ["ignore", "ignore", "pipe"] });
   child.stderr?.on("data", (chunk: Buffer) => logger.warn({ sim: chunk.toString().trim() }, "simulator"));
@@ -142,7 +156,10 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     sink = await startSmtpSink(dataSource, logger);
     if (!demo) logger.warn("SMTP_URL is not set: e-mail is kept by the local sink (readable by admins in the app), not delivered");
   }
-  const mailer: Mailer = createMailer({ smtpUrl: env.SMTP_URL, sinkPort: sink?.port, from: env.MAIL_FROM, logger });
+  const transport = createSmtpTransport({ smtpUrl: env.SMTP_URL, sinkPort: sink?.port, from: env.MAIL_FROM, logger });
+  const mailDomain = new URL(env.APP_URL ?? "http://benchwarden.localhost").hostname;
+  const outbox = new Outbox(dataSource, transport, logger, metrics, { pollMs: Math.min(env.ALERT_TICK, 5000), domain: mailDomain, retryFirstMs: env.MAIL_RETRY_FIRST });
+  const mailer = outbox;
   const appUrlFor = (port: number) => env.APP_URL ?? `http://localhost:${port}`;
   // The HTTP port is known only after listen(); links are built later, so resolve lazily.
   let resolvedAppUrl = env.APP_URL ?? `http://localhost:${env.PORT}`;
@@ -155,8 +172,16 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     logger,
   });
   if (seedUsers || (demo && (await dataSource.getRepository(UserEntity).count()) === 0)) {
-    for (const u of DEMO_USERS) await users.createWithPassword({ ...u, password: env.DEMO_PASSWORD });
-    logger.info("seeded the demo users");
+    const created = [];
+    for (const u of DEMO_USERS) created.push(await users.createWithPassword({ ...u, password: env.DEMO_PASSWORD }));
+    // The grower covers the nights in every house; the manager takes what nobody covers.
+    const grower = created.find((u) => u.role === "grower")!;
+    const manager = created.find((u) => u.role === "manager")!;
+    await dataSource.getRepository(DutyShiftEntity).save([
+      { zoneId: null, userId: grower.id, weekdays: 0b1111111, startMinute: 18 * 60, endMinute: 7 * 60, isFallback: false },
+      { zoneId: null, userId: manager.id, weekdays: 0b1111111, startMinute: 0, endMinute: 0, isFallback: true },
+    ]);
+    logger.info("seeded the demo users and duty rota");
   }
   const hub = new LiveHub();
   const windows = new WindowsService(dataSource);
@@ -164,19 +189,62 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   const repository = new ReadingsRepository(rawDatabase(dataSource));
   const sensors = new SensorsService(dataSource, repository);
   await sensors.reload();
+  const now = () => Date.now();
+  const layout = new LayoutCache(dataSource);
+  let alertsService: AlertsService | null = null;
+  const engine = new AlertEngine(
+    dataSource,
+    windows,
+    layout,
+    metrics,
+    logger,
+    { silentAfterMs: env.SENSOR_SILENT_AFTER, escalateAfterMs: env.ALERT_ESCALATE_AFTER, renotifyEveryMs: env.ALERT_RENOTIFY_EVERY },
+    now,
+    (ids) => {
+      void alertsService?.views(ids).then((alerts) => hub.publishAlerts(alerts), (err: unknown) => logger.error({ err }, "alert stream update failed"));
+    },
+  );
+  await engine.start();
+  alertsService = new AlertsService(dataSource, engine, layout, windows, jwtSecret);
+  const notifier = new Notifier(
+    dataSource,
+    layout,
+    windows,
+    outbox,
+    logger,
+    { groupWindowMs: env.ALERT_GROUP_WINDOW, ackLinkLifetimeMs: env.ACK_LINK_LIFETIME, secret: jwtSecret, appUrl: () => resolvedAppUrl },
+    now,
+  );
   const writer = new ReadingWriter(
     repository,
-    (stored) =>
+    (stored) => {
       hub.publishReadings(
         stored.flatMap((r) =>
           r.benchId === null
             ? []
             : [{ ...r, benchId: r.benchId, status: classifyValue(r.value, windows.windowFor(r.benchId, r.quantity)) }],
         ),
-      ),
+      );
+      void engine.onReadings(stored);
+    },
     metrics,
     logger,
   );
+  // One alert round: evaluate (delays, silence, escalation, reminders) → group notices → send mail.
+  let passRunning: Promise<void> | null = null;
+  const pass = () =>
+    (passRunning ??= (async () => {
+      try {
+        await engine.tick();
+        await notifier.flush();
+        await outbox.sendDue();
+      } finally {
+        passRunning = null;
+      }
+    })());
+  const alertTimer = setInterval(() => void pass().catch((err: unknown) => logger.error({ err }, "alert round failed")), env.ALERT_TICK);
+  alertTimer.unref();
+  outbox.start();
   metrics.addGauge("benchwarden_stream_clients", "Open live-stream connections", () => hub.clientCount);
 
   let broker: EmbeddedBroker | null = null;
@@ -191,6 +259,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         simulator.kill("SIGTERM");
         await Promise.race([exited, new Promise((r) => setTimeout(r, 3000))]);
       }
+      clearInterval(alertTimer);
       hub.close();
       if (http) {
         http.closeAllConnections();
@@ -198,7 +267,10 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       }
       if (broker) await broker.close();
       writer.close();
-      mailer.close();
+      await passRunning?.catch(() => undefined);
+      await engine.idle();
+      await outbox.stop();
+      transport.close();
       if (sink) await sink.close();
       if (dataSource.isInitialized) await dataSource.destroy();
       logger.info("stopped");
@@ -210,12 +282,15 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       metrics,
       ingest: createIngest({ sensors, writer, metrics, logger }),
       logger,
+      onSensorOffline: (sensorId) => void engine.onSensorOffline(sensorId),
     });
     sensors.onRevoked = (sensorId) => broker?.disconnectSensor(sensorId);
 
     const app = createApp({
       dataSource,
-      zones: new ZonesService(dataSource, repository, windows),
+      zones: new ZonesService(dataSource, repository, windows, alertsService),
+      alerts: alertsService,
+      rota: new RotaService(dataSource),
       readings: new ReadingsService(dataSource, repository, windows),
       users,
       sensors,
@@ -240,7 +315,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, users, app, dataSource, metrics, logger, stop };
+    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, stop };
   } catch (err) {
     await stop();
     throw err;

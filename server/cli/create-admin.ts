@@ -63,7 +63,7 @@ const program = new Command()
     await dataSource.runMigrations({ transaction: "each" });
     const logger = createLogger("silent");
     // No mail is sent: the admin is created with a password, so neither secret nor mailer is used.
-    const users = new UsersService(dataSource, { secret: "unused", appUrl: "", mailer: { send: async () => {}, close: () => {} }, logger });
+    const users = new UsersService(dataSource, { secret: "unused", appUrl: "", mailer: { enqueue: async () => {} }, logger });
     try {
       const user = await users.createWithPassword({ name: name.data, email: email.data, role: "admin", password: password.data });
       console.log(`Admin ${user.name} <${user.email}> created in ${env.DATABASE_PATH}. Sign in at the app's address.`);

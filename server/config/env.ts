@@ -1,8 +1,22 @@
 import { existsSync } from "node:fs";
 import { z } from "zod";
+import { parseDurationMs } from "../../shared/domain/duration.js";
 
 const port = z.coerce.number().int().min(0).max(65535);
 const flag = z.enum(["0", "1"]).transform((v) => v === "1");
+/** A duration such as 30s, 10m or 2h, parsed to milliseconds. */
+const duration = (fallback: string) =>
+  z
+    .string()
+    .default(fallback)
+    .transform((text, ctx) => {
+      const ms = parseDurationMs(text);
+      if (ms === undefined) {
+        ctx.addIssue({ code: "custom", message: "must be a duration such as 30s, 10m or 2h" });
+        return z.NEVER;
+      }
+      return ms;
+    });
 
 /** Every setting Benchwarden reads from the environment (PRODUCT.md §4), parsed once at start. */
 export const envSchema = z.object({
@@ -21,6 +35,13 @@ export const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8, "must be at least 8 characters").default("bench-demo-2026").describe("Password of the demo users"),
   SIM: flag.optional().describe("1 = start the sensor simulator with the server (default: on in demo mode)"),
   SIM_INTERVAL: z.string().regex(/^\d+(ms|s|m)$/, "must look like 5s, 500ms or 1m").default("5s").describe("How often each simulated sensor publishes"),
+  ALERT_TICK: duration("5s").describe("How often the alert engine re-evaluates every bench without a new reading"),
+  SENSOR_SILENT_AFTER: duration("10m").describe("A sensor with no reading for this long raises a sensor-silent alert"),
+  ALERT_GROUP_WINDOW: duration("60s").describe("Alerts of one zone that rise within this time go out as one e-mail"),
+  ALERT_ESCALATE_AFTER: duration("20m").describe("A raised alert not acknowledged for this long is mailed to the managers"),
+  ALERT_RENOTIFY_EVERY: duration("30m").describe("While raised and unacknowledged, the person on duty is mailed again this often"),
+  ACK_LINK_LIFETIME: duration("24h").describe("How long an e-mailed acknowledge link works"),
+  MAIL_RETRY_FIRST: duration("5s").describe("Wait before the first retry of an e-mail the relay refused; doubles up to 5 min"),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info").describe("pino log level"),
 });
 

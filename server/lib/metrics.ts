@@ -51,6 +51,9 @@ export class Metrics {
   readonly readingsRejected = new Counter("benchwarden_readings_rejected_total", "Readings or packs refused at ingest, by reason");
   readonly mqttMessages = new Counter("benchwarden_mqtt_messages_total", "MQTT reading messages received");
   readonly writeBatches = new Counter("benchwarden_write_batches_total", "Ingest write transactions committed");
+  readonly mailSent = new Counter("benchwarden_mail_sent_total", "E-mails accepted by the mail relay");
+  readonly mailFailed = new Counter("benchwarden_mail_failed_attempts_total", "E-mail attempts that failed (retried later)");
+  readonly alertTransitions = new Counter("benchwarden_alert_transitions_total", "Alert life-cycle steps, by kind and step");
   readonly mqttRefused = new Counter("benchwarden_mqtt_refused_total", "MQTT connections, publishes and subscriptions refused, by reason");
   private readonly gauges: Gauge[] = [];
 
@@ -59,7 +62,7 @@ export class Metrics {
   }
 
   render(): string {
-    const counters = [this.readingsStored, this.readingsDuplicate, this.readingsRejected, this.mqttMessages, this.writeBatches, this.mqttRefused];
+    const counters = [this.readingsStored, this.readingsDuplicate, this.readingsRejected, this.mqttMessages, this.writeBatches, this.mqttRefused, this.mailSent, this.mailFailed, this.alertTransitions];
     return [...counters.map((c) => c.render()), ...this.gauges.map((g) => g.render())].join("\n") + "\n";
   }
 }

@@ -59,5 +59,6 @@ export async function startSmtpSink(dataSource: DataSource, logger: Logger, port
   });
   const boundPort = (server.server.address() as AddressInfo).port;
   logger.info({ port: boundPort }, "local SMTP sink listening (mail is kept, never relayed)");
-  return { port: boundPort, close: () => new Promise<void>((resolve) => server.close(() => resolve())) };
+  let closing: Promise<void> | null = null;
+  return { port: boundPort, close: () => (closing ??= new Promise<void>((resolve) => server.close(() => resolve()))) };
 }

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { alertSchema } from "./alerts.js";
 import { quantitySchema, sensorKindSchema } from "./quantities.js";
 import { quantityWindowSchema, windowStatusSchema } from "./windows.js";
 
@@ -24,6 +25,8 @@ export const benchSummarySchema = z.object({
   latest: z.array(latestReadingSchema),
   /** "inside" only when every windowed quantity with a value is inside. */
   status: windowStatusSchema,
+  /** Alerts not yet cleared (watching, raised, acknowledged), oldest first. */
+  alerts: z.array(alertSchema).optional(),
 });
 export type BenchSummary = z.infer<typeof benchSummarySchema>;
 

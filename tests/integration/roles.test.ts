@@ -32,6 +32,15 @@ const MATRIX: Record<string, Access> = {
   "GET /api/zones": ALL,
   "GET /api/benches/:benchId/readings": ALL,
   "GET /api/stream": ALL,
+  "GET /api/alerts": ALL,
+  "GET /api/alerts/:id": ALL,
+  "POST /api/alerts/:id/acknowledge": ["admin", "manager", "grower"],
+  "GET /api/ack-links/:token": "public",
+  "POST /api/ack-links/:token": "public",
+  "GET /api/duty-rota": ALL,
+  "POST /api/duty-rota/shifts": ["admin", "manager"],
+  "PUT /api/duty-rota/shifts/:id": ["admin", "manager"],
+  "DELETE /api/duty-rota/shifts/:id": ["admin", "manager"],
 };
 
 const TEST_SECRET = "role-matrix-test-secret-0123456789abcdef";

@@ -17,8 +17,11 @@ export interface TestServer extends RunningServer {
  * The real server on free loopback ports over a new SQLite file, seeded with the demo nursery,
  * simulator off so the test decides every reading.
  */
-export async function startTestServer(env: Record<string, string> = {}, options: { staticDir?: string } = {}): Promise<TestServer> {
-  const dir = mkdtempSync(join(tmpdir(), "benchwarden-test-"));
+export async function startTestServer(
+  env: Record<string, string> = {},
+  options: { staticDir?: string; /** Reuse a database folder (a restart); it is then not deleted. */ dir?: string } = {},
+): Promise<TestServer> {
+  const dir = options.dir ?? mkdtempSync(join(tmpdir(), "benchwarden-test-"));
   const server = await start(
     parseEnv({
       PORT: "0",
@@ -42,7 +45,7 @@ export async function startTestServer(env: Record<string, string> = {}, options:
     dir,
     cleanup: async () => {
       await server.stop();
-      rmSync(dir, { recursive: true, force: true });
+      if (!options.dir) rmSync(dir, { recursive: true, force: true });
     },
   };
 }

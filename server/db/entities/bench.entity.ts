@@ -8,6 +8,8 @@ export interface Bench {
   /** Place in the walking order within the zone. */
   position: number;
   archivedAtMs: number | null;
+  /** The bench's own dew-point margin, °C; null follows the zone's. */
+  dewPointMarginC: number | null;
   zone?: Zone;
 }
 
@@ -20,6 +22,7 @@ export const BenchEntity = new EntitySchema<Bench>({
     name: { type: "varchar", length: 120 },
     position: { type: "integer", default: 0 },
     archivedAtMs: { type: "integer", name: "archived_at_ms", nullable: true },
+    dewPointMarginC: { type: "real", name: "dew_point_margin_c", nullable: true },
   },
   relations: {
     zone: { type: "many-to-one", target: "Zone", joinColumn: { name: "zone_id" }, onDelete: "RESTRICT" },

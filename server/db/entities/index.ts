@@ -1,12 +1,17 @@
+import { AlertEntity, AlertNoticeEntity, AlertTrackerEntity, DutyShiftEntity } from "./alert.entity.js";
 import { AppMetaEntity } from "./app-meta.entity.js";
 import { BenchEntity } from "./bench.entity.js";
 import { CaughtMailEntity } from "./caught-mail.entity.js";
+import { OutboxEntity } from "./outbox.entity.js";
 import { LatestReadingEntity, ReadingEntity } from "./reading.entity.js";
 import { SensorEntity } from "./sensor.entity.js";
 import { SiteEntity } from "./site.entity.js";
 import { SignInFailureEntity, UserEntity } from "./user.entity.js";
 import { BenchWindowEntity, ZoneWindowEntity } from "./window.entity.js";
 import { ZoneEntity } from "./zone.entity.js";
+import { AuditEntryEntity } from "./audit-entry.entity.js";
+import { SensorAssignmentEntity } from "./sensor-assignment.entity.js";
+import { WindowPresetEntity } from "./window-preset.entity.js";
 
 export const ENTITIES = [
   AppMetaEntity,
@@ -21,4 +26,12 @@ export const ENTITIES = [
   UserEntity,
   SignInFailureEntity,
   CaughtMailEntity,
+  AlertEntity,
+  AlertTrackerEntity,
+  AlertNoticeEntity,
+  DutyShiftEntity,
+  OutboxEntity,
+  SensorAssignmentEntity,
+  AuditEntryEntity,
+  WindowPresetEntity,
 ];

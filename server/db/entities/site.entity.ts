@@ -6,6 +6,8 @@ export interface Site {
   /** IANA time zone of the greenhouse, for "night" and day boundaries. */
   timeZone: string;
   createdAtMs: number;
+  /** When it was archived (hidden, history kept); null while in use. */
+  archivedAtMs: number | null;
 }
 
 // EntitySchema rather than decorators: tsx, vitest and tsc then agree without decorator metadata.
@@ -17,5 +19,6 @@ export const SiteEntity = new EntitySchema<Site>({
     name: { type: "varchar", length: 120 },
     timeZone: { type: "varchar", name: "time_zone", length: 64, default: "UTC" },
     createdAtMs: { type: "integer", name: "created_at_ms" },
+    archivedAtMs: { type: "integer", name: "archived_at_ms", nullable: true },
   },
 });

@@ -7,6 +7,8 @@ export interface Zone {
   name: string;
   position: number;
   archivedAtMs: number | null;
+  /** Air temperature minus dew point below which condensation risk is alerted, °C (default 2). */
+  dewPointMarginC: number;
   site?: Site;
 }
 
@@ -19,6 +21,7 @@ export const ZoneEntity = new EntitySchema<Zone>({
     name: { type: "varchar", length: 120 },
     position: { type: "integer", default: 0 },
     archivedAtMs: { type: "integer", name: "archived_at_ms", nullable: true },
+    dewPointMarginC: { type: "real", name: "dew_point_margin_c", default: 2 },
   },
   relations: {
     site: { type: "many-to-one", target: "Site", joinColumn: { name: "site_id" }, onDelete: "RESTRICT" },

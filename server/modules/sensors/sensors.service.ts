@@ -1,10 +1,13 @@
 import { createHash, randomBytes, timingSafeEqual } from "node:crypto";
-import type { DataSource } from "typeorm";
+import { IsNull, type DataSource, type EntityManager } from "typeorm";
+import { MAX_ASSIGNMENT_BACKDATE_MS, type AssignSensorInput, type AssignSensorResponse, type SensorAssignment } from "../../../shared/schemas/layout.js";
 import type { RegisterSensorInput, SensorSecretResponse, SensorView, UpdateSensorInput } from "../../../shared/schemas/sensors.js";
-import { BenchEntity } from "../../db/entities/bench.entity.js";
+import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
+import { SensorAssignmentEntity, type SensorAssignmentRecord } from "../../db/entities/sensor-assignment.entity.js";
 import { SensorEntity, type Sensor } from "../../db/entities/sensor.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
+import { auditChange, writeAuditEntry } from "../audit/audit.service.js";
 import type { ReadingsRepository } from "../readings/readings.repository.js";
 
 export function hashSecret(secret: string): string {
@@ -30,6 +33,134 @@ export class SensorsService {
   async reload(): Promise<void> {
     const sensors = await this.dataSource.getRepository(SensorEntity).find();
     this.cache = new Map(sensors.map((s) => [s.id, s]));
+    await this.reconcileAssignments(sensors);
+  }
+
+  // ── assignment history ───────────────────────────────────────────────────
+
+  /**
+   * Makes each sensor's open assignment match its bench (sensors written without one, e.g. by the
+   * demo seed, get one from when they were registered). Bookkeeping at start-up; not audited.
+   */
+  private async reconcileAssignments(sensors: Sensor[], nowMs = Date.now()): Promise<void> {
+    const repo = this.dataSource.getRepository(SensorAssignmentEntity);
+    const [open, any] = await Promise.all([repo.findBy({ toMs: IsNull() }), repo.find({ select: { sensorId: true } })]);
+    const openBySensor = new Map(open.map((a) => [a.sensorId, a]));
+    const withHistory = new Set(any.map((a) => a.sensorId));
+    const fixes = sensors.filter((s) => (openBySensor.get(s.id)?.benchId ?? null) !== s.benchId);
+    if (fixes.length === 0) return;
+    await this.dataSource.transaction(async (tx) => {
+      for (const s of fixes) {
+        await this.moveAssignment(tx, s.id, s.benchId, withHistory.has(s.id) ? nowMs : Math.min(s.createdAtMs, nowMs));
+      }
+    });
+  }
+
+  /** Closes the sensor's open assignment at `atMs` and opens one on `benchId` (none for null). */
+  private async moveAssignment(manager: EntityManager, sensorId: string, benchId: number | null, atMs: number): Promise<void> {
+    const repo = manager.getRepository(SensorAssignmentEntity);
+    await repo.update({ sensorId, toMs: IsNull() }, { toMs: atMs });
+    if (benchId !== null) await repo.insert({ sensorId, benchId, fromMs: atMs, toMs: null });
+  }
+
+  private async benchLabel(manager: EntityManager, benchId: number | null): Promise<{ bench: Bench | null; zoneId: number | null; siteId: number | null; label: string | null }> {
+    if (benchId === null) return { bench: null, zoneId: null, siteId: null, label: null };
+    const bench = await manager.getRepository(BenchEntity).findOneBy({ id: benchId });
+    const zone = bench ? await manager.getRepository(ZoneEntity).findOneBy({ id: bench.zoneId }) : null;
+    return { bench, zoneId: zone?.id ?? null, siteId: zone?.siteId ?? null, label: bench ? `${zone?.name ?? ""} › ${bench.name}` : `Bench ${benchId}` };
+  }
+
+  /** Moves a sensor (open assignment, sensor.bench_id, audit) inside the caller's transaction. */
+  private async recordMove(
+    manager: EntityManager,
+    sensorId: string,
+    fromBenchId: number | null,
+    toBenchId: number | null,
+    atMs: number,
+    recordedAtMs: number,
+    note: string | null = null,
+  ): Promise<void> {
+    await manager.getRepository(SensorEntity).update({ id: sensorId }, { benchId: toBenchId });
+    await this.moveAssignment(manager, sensorId, toBenchId, atMs);
+    const from = await this.benchLabel(manager, fromBenchId);
+    const to = await this.benchLabel(manager, toBenchId);
+    await writeAuditEntry(
+      manager,
+      {
+        entityType: "sensor-assignment",
+        entityId: sensorId,
+        action: "assigned",
+        subject: `Sensor ${sensorId}`,
+        siteId: to.siteId ?? from.siteId,
+        zoneId: to.zoneId ?? from.zoneId,
+        previousZoneId: from.zoneId !== null && from.zoneId !== to.zoneId ? from.zoneId : null,
+        benchId: toBenchId ?? fromBenchId,
+        changes: [
+          auditChange("benchId", "reference", fromBenchId, toBenchId, { oldLabel: from.label, newLabel: to.label }),
+          ...(atMs !== recordedAtMs ? [auditChange("effectiveFromMs", "time", null, atMs)] : []),
+        ],
+        note,
+      },
+      recordedAtMs,
+    );
+  }
+
+  private async assignmentViews(where: { sensorId: string } | { benchId: number }): Promise<SensorAssignment[]> {
+    const rows: SensorAssignmentRecord[] = await this.dataSource.getRepository(SensorAssignmentEntity).find({ where, order: { fromMs: "DESC", id: "DESC" } });
+    const [benches, zones] = await Promise.all([this.dataSource.getRepository(BenchEntity).find(), this.dataSource.getRepository(ZoneEntity).find()]);
+    return rows.map((a) => {
+      const bench = benches.find((b) => b.id === a.benchId);
+      const zone = zones.find((z) => z.id === bench?.zoneId);
+      return { id: a.id, sensorId: a.sensorId, benchId: a.benchId, benchName: bench?.name ?? "", zoneId: zone?.id ?? 0, zoneName: zone?.name ?? "", fromMs: a.fromMs, toMs: a.toMs };
+    });
+  }
+
+  /** Where a sensor has been, newest first. */
+  async assignmentsOfSensor(id: string): Promise<SensorAssignment[]> {
+    if (!(await this.dataSource.getRepository(SensorEntity).existsBy({ id }))) throw notFound("sensor-not-found", `There is no sensor ${id}`);
+    return this.assignmentViews({ sensorId: id });
+  }
+
+  /** Which sensors a bench has had, newest first. */
+  async assignmentsOfBench(benchId: number): Promise<SensorAssignment[]> {
+    if (!(await this.dataSource.getRepository(BenchEntity).existsBy({ id: benchId }))) throw notFound("bench-not-found", `There is no bench ${benchId}`);
+    return this.assignmentViews({ benchId });
+  }
+
+  /**
+   * Put a sensor on a bench (or take it off) as of `fromMs` (default now). Dated in the past, the
+   * sensor's readings since then are re-filed onto the new bench, so a move entered late does not
+   * leave them on the bench it had left. Not before the current assignment began, nor over 7 days back.
+   */
+  async assign(id: string, input: AssignSensorInput, nowMs = Date.now()): Promise<AssignSensorResponse> {
+    const sensor = await this.dataSource.getRepository(SensorEntity).findOneBy({ id });
+    if (!sensor) throw notFound("sensor-not-found", `There is no sensor ${id}`);
+    await this.assertBench(input.benchId);
+    const fromMs = input.fromMs ?? nowMs;
+    const open = await this.dataSource.getRepository(SensorAssignmentEntity).findOneBy({ sensorId: id, toMs: IsNull() });
+    const tooEarly = (message: string) => new AppError("assignment-time-invalid", message, 400, [{ path: "fromMs", message }]);
+    if (fromMs > nowMs + 60_000) throw tooEarly("A move cannot be dated in the future");
+    if (fromMs < nowMs - MAX_ASSIGNMENT_BACKDATE_MS) throw tooEarly("A move can be dated at most 7 days back");
+    if (open && fromMs <= open.fromMs) throw tooEarly("The sensor was put on its current bench after that time");
+    if (input.benchId === sensor.benchId) throw new AppError("assignment-unchanged", `Sensor ${id} is already there`, 409, [{ path: "benchId", message: "Choose another bench" }]);
+
+    let refiled = 0;
+    await this.dataSource.transaction(async (tx) => {
+      const atMs = Math.min(fromMs, nowMs);
+      if (atMs < nowMs) {
+        refiled = await this.countSince(tx, id, atMs);
+        await tx.query(`UPDATE reading SET bench_id = ? WHERE sensor_id = ? AND time_ms >= ?`, [input.benchId, id, atMs]);
+        await tx.query(`UPDATE latest_reading SET bench_id = ? WHERE sensor_id = ? AND time_ms >= ?`, [input.benchId, id, atMs]);
+      }
+      await this.recordMove(tx, id, sensor.benchId, input.benchId, atMs, nowMs, refiled > 0 ? `Dated back; ${refiled} readings re-filed to the new bench` : null);
+    });
+    this.cache.delete(id);
+    return { assignments: await this.assignmentViews({ sensorId: id }), readingsRefiled: refiled };
+  }
+
+  private async countSince(manager: EntityManager, sensorId: string, atMs: number): Promise<number> {
+    const rows = (await manager.query(`SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ? AND time_ms >= ?`, [sensorId, atMs])) as { n: number }[];
+    return Number(rows[0]?.n ?? 0);
   }
 
   private async find(id: string): Promise<Sensor | undefined> {
@@ -88,8 +219,13 @@ export class SensorsService {
   }
 
   private async assertBench(benchId: number | null): Promise<void> {
-    if (benchId !== null && !(await this.dataSource.getRepository(BenchEntity).existsBy({ id: benchId }))) {
+    if (benchId === null) return;
+    const bench = await this.dataSource.getRepository(BenchEntity).findOneBy({ id: benchId });
+    if (!bench) {
       throw new AppError("bench-not-found", `There is no bench ${benchId}`, 400, [{ path: "benchId", message: "Choose an existing bench" }]);
+    }
+    if (bench.archivedAtMs !== null) {
+      throw new AppError("bench-archived", `${bench.name} is archived`, 400, [{ path: "benchId", message: "Choose a bench in use" }]);
     }
   }
 
@@ -99,13 +235,16 @@ export class SensorsService {
     }
     await this.assertBench(input.benchId);
     const secret = generateSecret();
-    await this.dataSource.getRepository(SensorEntity).insert({
-      id: input.id,
-      kind: input.kind,
-      benchId: input.benchId,
-      secretHash: hashSecret(secret),
-      disabledAtMs: null,
-      createdAtMs: nowMs,
+    await this.dataSource.transaction(async (tx) => {
+      await tx.getRepository(SensorEntity).insert({
+        id: input.id,
+        kind: input.kind,
+        benchId: null,
+        secretHash: hashSecret(secret),
+        disabledAtMs: null,
+        createdAtMs: nowMs,
+      });
+      if (input.benchId !== null) await this.recordMove(tx, input.id, null, input.benchId, nowMs, nowMs);
     });
     this.cache.delete(input.id);
     return { sensor: await this.view(input.id), secret };
@@ -125,9 +264,12 @@ export class SensorsService {
     const current = await this.view(id);
     if (input.benchId !== undefined) await this.assertBench(input.benchId);
     const changes: Partial<Sensor> = {};
-    if (input.benchId !== undefined) changes.benchId = input.benchId;
     if (input.disabled !== undefined && input.disabled !== current.disabled) changes.disabledAtMs = input.disabled ? nowMs : null;
-    await this.dataSource.getRepository(SensorEntity).update({ id }, changes);
+    await this.dataSource.transaction(async (tx) => {
+      if (Object.keys(changes).length > 0) await tx.getRepository(SensorEntity).update({ id }, changes);
+      // A bench change is a move: the assignment history and the audit trail record it.
+      if (input.benchId !== undefined && input.benchId !== current.benchId) await this.recordMove(tx, id, current.benchId, input.benchId, nowMs, nowMs);
+    });
     this.cache.delete(id);
     if (input.disabled === true) this.onRevoked(id);
     return this.view(id);

@@ -1,4 +1,5 @@
 import type { Response } from "express";
+import type { AlertView } from "../../../shared/schemas/alerts.js";
 import type { ReadingEvent } from "../../../shared/schemas/stream.js";
 
 /**
@@ -41,6 +42,11 @@ export class LiveHub {
       if (!seen || e.timeMs >= seen.timeMs) this.pending.set(key, e);
     }
     this.timer ??= setTimeout(() => this.flush(), this.flushMs);
+  }
+
+  /** Alerts that changed go out at once: they are few, and the night shift waits for them. */
+  publishAlerts(alerts: AlertView[]): void {
+    if (alerts.length > 0) this.broadcast(`event: alerts\ndata: ${JSON.stringify({ alerts })}\n\n`);
   }
 
   private flush(): void {

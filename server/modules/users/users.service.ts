@@ -4,7 +4,7 @@ import type { InviteUserInput, Role, UpdateMeInput, UpdateUserInput, User } from
 import { SignInFailureEntity, UserEntity, type UserRecord } from "../../db/entities/user.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import type { Logger } from "../../lib/logger.js";
-import type { Mailer } from "../../mail/mailer.js";
+import type { Mailer } from "../../mail/outbox.js";
 import { signPasswordLink, verifyPasswordLink, type LinkPurpose } from "./password-links.js";
 
 /** bcrypt cost: 2^12 rounds, about a quarter second here; the issue asks for at least 10. */
@@ -175,7 +175,7 @@ export class UsersService {
       purpose === "invite"
         ? `Hello ${user.name},\n\n${inviterName} has invited you to Benchwarden, the bench monitor of your nursery.\n\nChoose a password to start (this link works once, for 7 days):\n${link}\n\nIf you did not expect this, ignore this message.\n`
         : `Hello ${user.name},\n\nSomeone asked to reset the Benchwarden password for ${user.email}.\n\nChoose a new password (this link works once, for 1 hour):\n${link}\n\nIf it was not you, ignore this message: your password stays as it is.\n`;
-    await this.options.mailer.send({
+    await this.options.mailer.enqueue({
       to: user.email,
       subject: purpose === "invite" ? "You are invited to Benchwarden" : "Reset your Benchwarden password",
       text,

@@ -1,6 +1,7 @@
 import { IsNull, type DataSource } from "typeorm";
 import { classifyValue, combineStatuses } from "../../../shared/domain/window-status.js";
 import { WINDOWED_QUANTITIES, type Quantity } from "../../../shared/schemas/quantities.js";
+import type { AlertView } from "../../../shared/schemas/alerts.js";
 import type { BenchSummary, LatestReading, ZoneSummary } from "../../../shared/schemas/zones.js";
 import { BenchEntity } from "../../db/entities/bench.entity.js";
 import { SensorEntity } from "../../db/entities/sensor.entity.js";
@@ -17,6 +18,7 @@ export class ZonesService {
     private readonly dataSource: DataSource,
     private readonly readings: ReadingsRepository,
     private readonly windows: WindowsService,
+    private readonly alerts?: { openByBench(): Promise<Map<number, AlertView[]>> },
   ) {}
 
   async listZones(): Promise<ZoneSummary[]> {
@@ -28,6 +30,7 @@ export class ZonesService {
     ]);
     await this.windows.ready();
     const siteName = new Map(sites.map((s) => [s.id, s.name]));
+    const openAlerts = (await this.alerts?.openByBench()) ?? new Map<number, AlertView[]>();
 
     // Per bench and quantity, the newest value from any of its sensors.
     const latestByBench = new Map<number, Map<Quantity, LatestReading>>();
@@ -64,6 +67,7 @@ export class ZonesService {
         windows: await this.windows.windowsOf(bench.id),
         latest,
         status: combineStatuses(latest.filter((l) => WINDOWED.has(l.quantity)).map((l) => l.status)),
+        alerts: openAlerts.get(bench.id) ?? [],
       };
       summaries.set(bench.zoneId, [...(summaries.get(bench.zoneId) ?? []), summary]);
     }

@@ -1,0 +1,26 @@
+import { Router } from "express";
+import { z } from "zod";
+import { dutyShiftInputSchema } from "../../../shared/schemas/alerts.js";
+import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
+import type { RotaService } from "./rota.service.js";
+
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+const ROTA_EDITORS = ["admin", "manager"] as const;
+
+export function rotaRoutes(table: RouteTable, rota: RotaService): Router {
+  const r = table.router("/api", Router());
+  r.get("/duty-rota", EVERYONE_SIGNED_IN, async (_req, res) => {
+    res.json(await rota.rota());
+  });
+  r.post("/duty-rota/shifts", ROTA_EDITORS, async (req, res) => {
+    res.status(201).json({ shift: await rota.create(dutyShiftInputSchema.parse(req.body)) });
+  });
+  r.put("/duty-rota/shifts/:id", ROTA_EDITORS, async (req, res) => {
+    res.json({ shift: await rota.replace(idParams.parse(req.params).id, dutyShiftInputSchema.parse(req.body)) });
+  });
+  r.delete("/duty-rota/shifts/:id", ROTA_EDITORS, async (req, res) => {
+    await rota.remove(idParams.parse(req.params).id);
+    res.status(204).end();
+  });
+  return r.router;
+}

@@ -1,0 +1,107 @@
+import { z } from "zod";
+
+export const alertKindSchema = z.enum(["window", "condensation", "sensor-silent"]);
+export type AlertKind = z.infer<typeof alertKindSchema>;
+
+/** The life-cycle names of PRODUCT.md §3. */
+export const alertPhaseSchema = z.enum(["watching", "raised", "acknowledged", "cleared"]);
+export type AlertPhase = z.infer<typeof alertPhaseSchema>;
+
+export const alertSchema = z.object({
+  id: z.number().int(),
+  kind: alertKindSchema,
+  phase: alertPhaseSchema,
+  benchId: z.number().int(),
+  benchName: z.string(),
+  zoneId: z.number().int(),
+  zoneName: z.string(),
+  siteName: z.string(),
+  /** For kind "window": the quantity out of window. */
+  quantity: z.string().nullable(),
+  direction: z.enum(["below", "above"]).nullable(),
+  sensorId: z.string().nullable(),
+  /** Stored units (°C, %RH, ratio; °C of dew-point margin for condensation). */
+  lastValue: z.number().nullable(),
+  worstValue: z.number().nullable(),
+  /** The window in force when the alert was last evaluated, stored units. */
+  windowMin: z.number().nullable(),
+  windowMax: z.number().nullable(),
+  sinceMs: z.number(),
+  raisedAtMs: z.number().nullable(),
+  acknowledgedAtMs: z.number().nullable(),
+  acknowledgedByName: z.string().nullable(),
+  acknowledgeNote: z.string().nullable(),
+  clearedAtMs: z.number().nullable(),
+  escalatedAtMs: z.number().nullable(),
+  /** A plain sentence, e.g. "Air too cold". */
+  summary: z.string(),
+});
+export type AlertView = z.infer<typeof alertSchema>;
+
+/** GET /api/alerts */
+export const alertsQuerySchema = z.object({
+  status: z.enum(["open", "past", "all"]).default("open"),
+  zoneId: z.coerce.number().int().positive().optional(),
+  kind: alertKindSchema.optional(),
+  phase: alertPhaseSchema.optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+});
+export type AlertsQuery = z.infer<typeof alertsQuerySchema>;
+
+export const alertsResponseSchema = z.object({ alerts: z.array(alertSchema) });
+
+/** POST /api/alerts/:id/acknowledge, POST /api/ack-links/:token */
+export const acknowledgeInputSchema = z.object({
+  note: z.string().trim().max(500, "Use at most 500 characters").optional(),
+});
+export type AcknowledgeInput = z.infer<typeof acknowledgeInputSchema>;
+
+/** GET /api/ack-links/:token: what the acknowledge page shows; reading it changes nothing. */
+export const ackLinkResponseSchema = z.object({
+  recipientName: z.string(),
+  expiresAtMs: z.number(),
+  alerts: z.array(alertSchema),
+  /** False when every alert of the link is already acknowledged or cleared. */
+  canAcknowledge: z.boolean(),
+});
+export type AckLinkResponse = z.infer<typeof ackLinkResponseSchema>;
+
+const minuteOfDay = z.number().int().min(0).max(24 * 60);
+
+/** A duty shift, as the rota page edits it. */
+export const dutyShiftInputSchema = z
+  .object({
+    zoneId: z.number().int().positive().nullable(),
+    userId: z.number().int().positive(),
+    /** Bit 0 = Sunday … bit 6 = Saturday. */
+    weekdays: z.number().int().min(1, "Choose at least one day").max(127),
+    startMinute: minuteOfDay,
+    endMinute: minuteOfDay,
+    isFallback: z.boolean().default(false),
+  })
+  .refine((s) => s.isFallback || s.startMinute !== s.endMinute, { message: "A shift needs a start and an end", path: ["endMinute"] });
+export type DutyShiftInput = z.infer<typeof dutyShiftInputSchema>;
+
+export const dutyShiftSchema = z.object({
+  id: z.number().int(),
+  zoneId: z.number().int().nullable(),
+  zoneName: z.string().nullable(),
+  userId: z.number().int(),
+  userName: z.string(),
+  weekdays: z.number().int(),
+  startMinute: z.number().int(),
+  endMinute: z.number().int(),
+  isFallback: z.boolean(),
+});
+export type DutyShift = z.infer<typeof dutyShiftSchema>;
+
+export const dutyRotaResponseSchema = z.object({
+  shifts: z.array(dutyShiftSchema),
+  /** Who would be mailed right now, per zone. */
+  onDutyNow: z.array(z.object({ zoneId: z.number().int(), zoneName: z.string(), users: z.array(z.object({ id: z.number().int(), name: z.string() })) })),
+  timeZone: z.string(),
+});
+export type DutyRotaResponse = z.infer<typeof dutyRotaResponseSchema>;
+
+/** SSE event "alerts" on /api/stream: alerts that changed. */
+export const alertsEventSchema = z.object({ alerts: z.array(alertSchema) });
