@@ -9,6 +9,13 @@ import { apiNotFound, createErrorHandler } from "./lib/error-handler.js";
 import type { Logger } from "./lib/logger.js";
 import type { Metrics } from "./lib/metrics.js";
 import { alertsRoutes } from "./modules/alerts/alerts.routes.js";
+import { actorContext } from "./modules/audit/actor-context.js";
+import { auditRoutes } from "./modules/audit/audit.routes.js";
+import type { AuditService } from "./modules/audit/audit.service.js";
+import { exportsRoutes } from "./modules/exports/exports.routes.js";
+import type { ExportsService } from "./modules/exports/exports.service.js";
+import { layoutRoutes } from "./modules/layout/layout.routes.js";
+import type { LayoutService } from "./modules/layout/layout.service.js";
 import type { AlertsService } from "./modules/alerts/alerts.service.js";
 import { healthRoutes } from "./modules/health/health.routes.js";
 import { mailRoutes } from "./modules/mail/mail.routes.js";
@@ -23,6 +30,8 @@ import type { LiveHub } from "./modules/stream/live-hub.js";
 import { streamRoutes } from "./modules/stream/stream.routes.js";
 import { usersRoutes } from "./modules/users/users.routes.js";
 import type { UsersService } from "./modules/users/users.service.js";
+import type { WindowSettingsService } from "./modules/windows/window-settings.service.js";
+import { windowsRoutes } from "./modules/windows/windows.routes.js";
 import { zonesRoutes } from "./modules/zones/zones.routes.js";
 import type { ZonesService } from "./modules/zones/zones.service.js";
 
@@ -34,6 +43,10 @@ export interface AppDeps {
   sensors: SensorsService;
   alerts: AlertsService;
   rota: RotaService;
+  layout: LayoutService;
+  windowSettings: WindowSettingsService;
+  audit: AuditService;
+  exports: ExportsService;
   hub: LiveHub;
   metrics: Metrics;
   logger: Logger;
@@ -82,6 +95,8 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
   const table = new RouteTable(identify);
   app.locals.routeTable = table;
 
+  // Services that audit a change find the signed-in principal through this (modules/audit/actor-context.ts).
+  app.use(actorContext());
   app.use(healthRoutes(table, deps.dataSource, deps.metrics));
   app.use(sessionRoutes(table, deps.users, { secret: deps.jwtSecret, sessionHours: deps.sessionHours }));
   app.use(usersRoutes(table, deps.users));
@@ -92,6 +107,10 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
   app.use(streamRoutes(table, deps.hub));
   app.use(alertsRoutes(table, deps.alerts));
   app.use(rotaRoutes(table, deps.rota));
+  app.use(layoutRoutes(table, deps.layout, deps.sensors));
+  app.use(windowsRoutes(table, deps.windowSettings));
+  app.use(auditRoutes(table, deps.audit));
+  app.use(exportsRoutes(table, deps.exports));
   app.use("/api", apiNotFound);
 
   const staticDir = deps.staticDir;

@@ -39,6 +39,10 @@ import { SensorsService } from "./modules/sensors/sensors.service.js";
 import { UsersService } from "./modules/users/users.service.js";
 import { LiveHub } from "./modules/stream/live-hub.js";
 import { WindowsService } from "./modules/windows/windows.service.js";
+import { WindowSettingsService } from "./modules/windows/window-settings.service.js";
+import { LayoutService } from "./modules/layout/layout.service.js";
+import { AuditService } from "./modules/audit/audit.service.js";
+import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
 import { createIngest } from "./mqtt/ingest.js";
@@ -286,8 +290,13 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     });
     sensors.onRevoked = (sensorId) => broker?.disconnectSensor(sensorId);
 
+    const windowSettings = new WindowSettingsService(dataSource, windows);
     const app = createApp({
       dataSource,
+      layout: new LayoutService(dataSource, windows, windowSettings),
+      windowSettings,
+      audit: new AuditService(dataSource),
+      exports: new ExportsService(dataSource),
       zones: new ZonesService(dataSource, repository, windows, alertsService),
       alerts: alertsService,
       rota: new RotaService(dataSource),

@@ -7,7 +7,7 @@
 import { WINDOWED_QUANTITIES, type WindowedQuantity } from "../schemas/quantities.js";
 import type { GuidanceSource, PresetNote, QuantityWindow, WindowPreset, WindowWarning } from "../schemas/windows.js";
 import { relativeHumidityFromDewPointPct } from "./psychrometrics.js";
-import { celsiusDeltaToFahrenheit, celsiusToFahrenheit } from "./units.js";
+import { celsiusDeltaToFahrenheit, celsiusToFahrenheit, fahrenheitToCelsius } from "./units.js";
 
 /** The sources the guidance below rests on. */
 export const GUIDANCE_SOURCES = {
@@ -118,17 +118,17 @@ function quantityWarnings(w: QuantityWindow): WindowWarning[] {
   const q = w.quantity;
   if (q === "air.temperature") {
     if (w.min < GUIDANCE.airMinRootingC) {
-      out.push(warning("air-min-below-rooting", q, "min", `An air minimum below about ${bothScales(GUIDANCE.airMinRootingC)} lets the house sit where rooting slows sharply.`, GUIDANCE.airMinRootingC, GUIDANCE_SOURCES.airRootingBand));
+      out.push(warning("air-min-below-rooting", q, "min", `An air minimum below about 70 °F (21 °C) lets the house sit where rooting slows sharply.`, GUIDANCE.airMinRootingC, GUIDANCE_SOURCES.airRootingBand));
     }
     if (w.max > GUIDANCE.airMaxRootingC) {
-      out.push(warning("air-max-above-rooting", q, "max", `An air maximum above about ${bothScales(GUIDANCE.airMaxRootingC)} is warmer than the usual 70–80 °F (21–27 °C) band for rooting cuttings.`, GUIDANCE.airMaxRootingC, GUIDANCE_SOURCES.airUpperPublished));
+      out.push(warning("air-max-above-rooting", q, "max", `An air maximum above about 80 °F (27 °C) is warmer than the usual 70–80 °F (21–27 °C) band for rooting cuttings.`, GUIDANCE.airMaxRootingC, GUIDANCE_SOURCES.airUpperPublished));
     }
   } else if (q === "medium.temperature") {
     if (w.min < GUIDANCE.mediumMinC) {
-      out.push(warning("medium-min-below-rooting", q, "min", `A medium minimum below ${bothScales(GUIDANCE.mediumMinC)} lets the medium cool to where callusing and rooting slow or stop.`, GUIDANCE.mediumMinC, GUIDANCE_SOURCES.mediumLower));
+      out.push(warning("medium-min-below-rooting", q, "min", `A medium minimum below about 64 °F (18 °C) lets the medium cool to where callusing and rooting slow or stop.`, GUIDANCE.mediumMinC, GUIDANCE_SOURCES.mediumLower));
     }
     if (w.max > GUIDANCE.mediumMaxC) {
-      out.push(warning("medium-max-above-rooting", q, "max", `A medium maximum above ${bothScales(GUIDANCE.mediumMaxC)} is well past the 70–77 °F (21–25 °C) usual for a rooting medium.`, GUIDANCE.mediumMaxC, GUIDANCE_SOURCES.mediumUpper));
+      out.push(warning("medium-max-above-rooting", q, "max", `A medium maximum above 86 °F (30 °C) is well past the 70–77 °F (21–25 °C) usual for a rooting medium.`, GUIDANCE.mediumMaxC, GUIDANCE_SOURCES.mediumUpper));
     }
   } else if (q === "medium.moisture") {
     if (w.max > GUIDANCE.moistureSaturated) {
@@ -214,6 +214,10 @@ export function windowWarnings(set: WindowSetForGuidance): WindowWarning[] {
 
 // ── built-in presets ──────────────────────────────────────────────────────
 
+/** 70 °F and 80 °F in °C (NIST SP 811): the common-practice rooting band, as a grower types it in °F. */
+const AIR_70_F = fahrenheitToCelsius(70);
+const AIR_80_F = fahrenheitToCelsius(80);
+
 function note(quantity: WindowedQuantity | null, text: string, source: GuidanceSource): PresetNote {
   return { quantity, note: text, source: { ...source } };
 }
@@ -229,7 +233,7 @@ export const BUILT_IN_PRESETS: readonly WindowPreset[] = [
     description: "Hardwood and semi-hardwood cuttings of figs and other subtropical fruit trees on heated benches: warm air, a warm medium, moist but never wet.",
     builtIn: true,
     windows: [
-      { quantity: "air.temperature", min: 21.1, max: 26.7, delayS: 600, hysteresis: 0.5 },
+      { quantity: "air.temperature", min: AIR_70_F, max: AIR_80_F, delayS: 600, hysteresis: 0.5 },
       { quantity: "air.humidity", min: 65, max: 85, delayS: 1800, hysteresis: 3 },
       { quantity: "medium.temperature", min: 21, max: 25, delayS: 900, hysteresis: 0.5 },
       { quantity: "medium.moisture", min: 0.35, max: 0.55, delayS: 3600, hysteresis: 0.02 },
@@ -251,7 +255,7 @@ export const BUILT_IN_PRESETS: readonly WindowPreset[] = [
     description: "Freshly grafted stock knitting at the union: as warm as rooting, more humid, a slightly drier medium.",
     builtIn: true,
     windows: [
-      { quantity: "air.temperature", min: 21.1, max: 26.7, delayS: 600, hysteresis: 0.5 },
+      { quantity: "air.temperature", min: AIR_70_F, max: AIR_80_F, delayS: 600, hysteresis: 0.5 },
       { quantity: "air.humidity", min: 75, max: 90, delayS: 1800, hysteresis: 3 },
       { quantity: "medium.temperature", min: 21, max: 25, delayS: 900, hysteresis: 0.5 },
       { quantity: "medium.moisture", min: 0.3, max: 0.5, delayS: 3600, hysteresis: 0.02 },

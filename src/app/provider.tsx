@@ -1,15 +1,23 @@
 import { QueryClientProvider, type QueryClient } from "@tanstack/react-query";
 import { Component, type ReactNode } from "react";
 import { ErrorMessage } from "../components/errors/error-message";
+import { ToastProvider } from "../components/ui/toast";
 import { TemperatureUnitProvider } from "../lib/temperature-unit";
 
 type AppProviderProps = { queryClient: QueryClient; children: ReactNode };
 
+/**
+ * App-wide context. The unit here is this browser's default; the signed-in layout puts the
+ * user's own preference over it (app/routes/root.tsx). The session itself is restored by the
+ * signed-in layout's loader (app/session-guard.ts).
+ */
 export function AppProvider({ queryClient, children }: AppProviderProps) {
   return (
     <TopErrorBoundary>
       <QueryClientProvider client={queryClient}>
-        <TemperatureUnitProvider>{children}</TemperatureUnitProvider>
+        <TemperatureUnitProvider>
+          <ToastProvider>{children}</ToastProvider>
+        </TemperatureUnitProvider>
       </QueryClientProvider>
     </TopErrorBoundary>
   );

@@ -42,27 +42,21 @@ async function toApiError(response: Response): Promise<ApiError> {
   });
 }
 
-/** GET a JSON resource and validate it with the shared schema. Throws ApiError. */
-export async function apiGet<S extends z.ZodType>(
-  path: string,
-  schema: S,
-  options: { signal?: AbortSignal; params?: Record<string, string | undefined> } = {},
-): Promise<z.output<S>> {
+function buildUrl(path: string, params: Record<string, string | undefined> = {}): string {
   const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(options.params ?? {})) {
+  for (const [key, value] of Object.entries(params)) {
     if (value !== undefined) search.set(key, value);
   }
-  const url = search.size > 0 ? `${path}?${search}` : path;
+  return search.size > 0 ? `${path}?${search}` : path;
+}
 
+async function send(url: string, init: RequestInit, signal: AbortSignal | undefined): Promise<Response> {
   let response: Response;
   try {
-    response = await fetch(url, {
-      headers: { Accept: "application/json" },
-      credentials: "same-origin",
-      signal: options.signal,
-    });
+    // The session is an httpOnly, SameSite=Strict cookie: same-origin requests carry it.
+    response = await fetch(url, { ...init, credentials: "same-origin", signal });
   } catch (error) {
-    if (options.signal?.aborted) throw error;
+    if (signal?.aborted) throw error;
     throw new ApiError({
       status: 0,
       code: "network-error",
@@ -70,9 +64,11 @@ export async function apiGet<S extends z.ZodType>(
       detail: "The Benchwarden server could not be reached",
     });
   }
-
   if (!response.ok) throw await toApiError(response);
+  return response;
+}
 
+async function parseBody<S extends z.ZodType>(response: Response, schema: S, path: string): Promise<z.output<S>> {
   const parsed = schema.safeParse(await response.json().catch(() => undefined));
   if (!parsed.success) {
     throw new ApiError({
@@ -83,4 +79,43 @@ export async function apiGet<S extends z.ZodType>(
     });
   }
   return parsed.data;
+}
+
+/** GET a JSON resource and validate it with the shared schema. Throws ApiError. */
+export async function apiGet<S extends z.ZodType>(
+  path: string,
+  schema: S,
+  options: { signal?: AbortSignal; params?: Record<string, string | undefined> } = {},
+): Promise<z.output<S>> {
+  const response = await send(buildUrl(path, options.params), { headers: { Accept: "application/json" } }, options.signal);
+  return parseBody(response, schema, path);
+}
+
+type SendOptions = { body?: unknown; signal?: AbortSignal };
+
+/**
+ * POST/PATCH/DELETE with a JSON body. With a schema the answer is validated and returned; without
+ * one (204, 202) the body is ignored. Throws ApiError.
+ */
+export async function apiSend<S extends z.ZodType>(method: "POST" | "PATCH" | "DELETE", path: string, schema: S, options?: SendOptions): Promise<z.output<S>>;
+export async function apiSend(method: "POST" | "PATCH" | "DELETE", path: string, schema?: undefined, options?: SendOptions): Promise<void>;
+export async function apiSend<S extends z.ZodType>(
+  method: "POST" | "PATCH" | "DELETE",
+  path: string,
+  schema?: S,
+  { body, signal }: SendOptions = {},
+): Promise<z.output<S> | void> {
+  const headers: Record<string, string> = { Accept: "application/json" };
+  if (body !== undefined) headers["Content-Type"] = "application/json";
+  const response = await send(path, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) }, signal);
+  if (!schema) return;
+  return parseBody(response, schema, path);
+}
+
+/**
+ * True when the server says the session is gone (expired, signed out elsewhere, user disabled):
+ * any 401 except a wrong e-mail/password on the sign-in form itself.
+ */
+export function isSignInRequired(error: unknown): boolean {
+  return isApiError(error) && error.status === 401 && error.code !== "invalid-credentials";
 }

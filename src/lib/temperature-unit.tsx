@@ -1,7 +1,10 @@
 import { createContext, use, useCallback, useEffect, useMemo, useState, type ReactNode } from "react";
 import type { TemperatureUnit } from "../../shared/domain/units.js";
 
-/** localStorage key of the chosen scale; per browser until users get their own setting. */
+/**
+ * localStorage key of the last scale used on this browser. It is the default before anyone signs
+ * in; once signed in, the user's own preference (saved on the server) wins and is copied here.
+ */
 export const TEMPERATURE_UNIT_STORAGE_KEY = "benchwarden.temperatureUnit";
 export const DEFAULT_TEMPERATURE_UNIT: TemperatureUnit = "F";
 
@@ -26,22 +29,47 @@ type TemperatureUnitContextValue = {
 
 const TemperatureUnitContext = createContext<TemperatureUnitContextValue | null>(null);
 
-export function TemperatureUnitProvider({ children }: { children: ReactNode }) {
-  const [unit, setUnitState] = useState<TemperatureUnit>(readStoredTemperatureUnit);
+function storeTemperatureUnit(unit: TemperatureUnit) {
+  try {
+    window.localStorage.setItem(TEMPERATURE_UNIT_STORAGE_KEY, unit);
+  } catch {
+    // Not persisted; the choice still holds for this visit.
+  }
+}
 
-  const setUnit = useCallback((next: TemperatureUnit) => {
-    setUnitState(next);
-    try {
-      window.localStorage.setItem(TEMPERATURE_UNIT_STORAGE_KEY, next);
-    } catch {
-      // Not persisted; the choice still holds for this visit.
-    }
-  }, []);
+type TemperatureUnitProviderProps = {
+  children: ReactNode;
+  /**
+   * The signed-in user's preference. When given, the provider follows it (and copies it to this
+   * browser's storage) instead of the stored value; `onUnitChange` is told of every change so it
+   * can be saved on the server.
+   */
+  unit?: TemperatureUnit;
+  onUnitChange?: (unit: TemperatureUnit) => void;
+};
 
-  // Another tab changed the scale: follow it.
+export function TemperatureUnitProvider({ children, unit: accountUnit, onUnitChange }: TemperatureUnitProviderProps) {
+  const [storedUnit, setStoredUnit] = useState<TemperatureUnit>(readStoredTemperatureUnit);
+  const unit = accountUnit ?? storedUnit;
+
+  // The account's preference replaces this browser's default, so the next sign-in page agrees.
+  useEffect(() => {
+    if (accountUnit) storeTemperatureUnit(accountUnit);
+  }, [accountUnit]);
+
+  const setUnit = useCallback(
+    (next: TemperatureUnit) => {
+      setStoredUnit(next);
+      storeTemperatureUnit(next);
+      onUnitChange?.(next);
+    },
+    [onUnitChange],
+  );
+
+  // Another tab changed the scale: follow it (only the browser default; an account follows its own setting).
   useEffect(() => {
     const onStorage = (event: StorageEvent) => {
-      if (event.key === TEMPERATURE_UNIT_STORAGE_KEY && isTemperatureUnit(event.newValue)) setUnitState(event.newValue);
+      if (event.key === TEMPERATURE_UNIT_STORAGE_KEY && isTemperatureUnit(event.newValue)) setStoredUnit(event.newValue);
     };
     window.addEventListener("storage", onStorage);
     return () => window.removeEventListener("storage", onStorage);

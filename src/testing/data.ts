@@ -1,4 +1,6 @@
 // Test data builders for component tests only; nothing in the app imports this file.
+import type { Role, SessionResponse, User } from "../../shared/schemas/auth.js";
+import type { SensorView } from "../../shared/schemas/sensors.js";
 import type { QuantityWindow } from "../../shared/schemas/windows.js";
 import type { BenchSummary, LatestReading, ZoneSummary, ZonesResponse } from "../../shared/schemas/zones.js";
 
@@ -41,4 +43,46 @@ export function makeZone(overrides: Partial<ZoneSummary> = {}): ZoneSummary {
 
 export function makeZones(zones: ZoneSummary[] = [makeZone()]): ZonesResponse {
   return { zones };
+}
+
+export function makeUser(overrides: Partial<User> = {}): User {
+  return {
+    id: 1,
+    name: "Ada Admin",
+    email: "admin@nursery.test",
+    role: "admin",
+    temperatureUnit: "F",
+    disabled: false,
+    hasPassword: true,
+    createdAtMs: NOW_MS - 30 * 86_400_000,
+    lastSignInMs: NOW_MS - 3_600_000,
+    ...overrides,
+  };
+}
+
+/** One signed-in user per role, like the demo nursery's. */
+export const USERS: Record<Role, User> = {
+  admin: makeUser(),
+  manager: makeUser({ id: 2, name: "Mo Manager", email: "manager@nursery.test", role: "manager" }),
+  grower: makeUser({ id: 3, name: "Gil Grower", email: "grower@nursery.test", role: "grower" }),
+  viewer: makeUser({ id: 4, name: "Vi Viewer", email: "viewer@nursery.test", role: "viewer" }),
+};
+
+export function makeSession(user: User = USERS.admin): SessionResponse {
+  return { user, expiresAtMs: Date.now() + 12 * 3_600_000 };
+}
+
+export function makeSensor(overrides: Partial<SensorView> = {}): SensorView {
+  return {
+    id: "probe-1",
+    kind: "combined",
+    benchId: 1,
+    benchName: "Bench 1",
+    zoneName: "Fig house",
+    disabled: false,
+    createdAtMs: NOW_MS - 86_400_000,
+    lastSeenMs: Date.now() - 60_000,
+    batteryPct: 87,
+    ...overrides,
+  };
 }

@@ -28,15 +28,16 @@ export class WindowsService {
   private marginByBench = new Map<number, number>();
   private loaded: Promise<void> | null = null;
   /** Reloads run one after another, so a reload asked for after a commit always reads it. */
-  private queue: Promise<void> = Promise.resolve();
+  private queue: Promise<unknown> = Promise.resolve();
   private readonly listeners = new Set<() => void>();
+  private fingerprint = "";
 
   constructor(private readonly dataSource: DataSource) {}
 
   async reload(): Promise<void> {
     const next = this.queue.then(() => this.load());
-    this.queue = next.catch(() => {});
-    await next;
+    this.queue = next.catch(() => false);
+    if (!(await next)) return;
     for (const listener of this.listeners) {
       try {
         listener();
@@ -46,7 +47,8 @@ export class WindowsService {
     }
   }
 
-  private async load(): Promise<void> {
+  /** Reads everything afresh; true when something differs from what was cached. */
+  private async load(): Promise<boolean> {
     const [benches, zones, zoneWindows, benchWindows] = await Promise.all([
       this.dataSource.getRepository(BenchEntity).find(),
       this.dataSource.getRepository(ZoneEntity).find(),
@@ -67,8 +69,12 @@ export class WindowsService {
       next.set(bench.id, effective);
       margins.set(bench.id, bench.dewPointMarginC ?? zoneMargin.get(bench.zoneId) ?? DEFAULT_DEW_POINT_MARGIN_C);
     }
+    const fingerprint = JSON.stringify([[...next].map(([id, m]) => [id, [...m.values()]]), [...margins]]);
     this.byBench = next;
     this.marginByBench = margins;
+    const changed = fingerprint !== this.fingerprint;
+    this.fingerprint = fingerprint;
+    return changed;
   }
 
   private async ensureLoaded(): Promise<void> {
@@ -90,8 +96,9 @@ export class WindowsService {
   }
 
   /**
-   * Called after every reload (so after every window, margin or layout change): for an engine that
-   * wants to re-evaluate held values at once rather than at its next tick. Returns an unsubscribe.
+   * Called after a reload that found something changed (a window, a margin, a bench moved, added or
+   * removed): for an engine that wants to re-evaluate held values at once rather than at its next
+   * tick. A reload that finds nothing new calls nobody. Returns an unsubscribe.
    */
   onChange(listener: () => void): () => void {
     this.listeners.add(listener);

@@ -1,29 +1,73 @@
 import { Outlet, useNavigation } from "react-router-dom";
 import { RouteError } from "../../components/errors/route-error";
 import { AppShell } from "../../components/layouts/app-shell";
-import { TemperatureUnitSwitch } from "../../components/layouts/temperature-unit-switch";
+import { MainNav, type NavItem } from "../../components/layouts/main-nav";
 import { Loading } from "../../components/ui/loading";
+import { useToast } from "../../components/ui/toast";
+import { paths } from "../../config/paths";
+import { useSession } from "../../features/auth/api/get-session";
+import { useUpdateMe } from "../../features/auth/api/update-me";
+import { UserMenu } from "../../features/auth/components/user-menu";
 import { LiveIndicator } from "../../features/live/components/live-indicator";
+import { ALLOWED, AuthorizationProvider } from "../../lib/authorization";
+import { TemperatureUnitProvider } from "../../lib/temperature-unit";
+import type { TemperatureUnit } from "../../../shared/domain/units.js";
+import type { Role } from "../../../shared/schemas/auth.js";
 import { useLiveUpdates } from "../live-updates";
+import { useSessionExpiry, useSignInRedirect } from "../session-guard";
 
-/** The frame of every page: header with the live indicator and the °F/°C switch. */
+/** The header's page links, each with the roles that may open the page. */
+const NAV_ITEMS: readonly (NavItem & { roles?: readonly Role[] })[] = [
+  { to: paths.dashboard.to(), label: "Benches", end: true },
+  { to: paths.users.to(), label: "Users", roles: ALLOWED.manageUsers },
+  { to: paths.sensors.to(), label: "Sensors", roles: ALLOWED.manageSensors },
+  { to: paths.mailbox.to(), label: "Mailbox", roles: ALLOWED.readMailbox },
+];
+
+/**
+ * The frame of every signed-in page: header with the live indicator, the links the role may
+ * use and the user menu. The session was restored by the loader (GET /api/session).
+ */
 export function RootLayout() {
+  const { data: session } = useSession();
+  const { user } = session;
+  const updateMe = useUpdateMe();
+  const { showToast } = useToast();
+  useSignInRedirect();
+  useSessionExpiry(session.expiresAtMs);
   const streamState = useLiveUpdates();
   const navigation = useNavigation();
+
+  const saveUnit = (temperatureUnit: TemperatureUnit) =>
+    updateMe.mutate(
+      { temperatureUnit },
+      { onError: (error) => showToast(`Your temperature unit was not saved: ${error.message}`, "error") },
+    );
+
+  const navItems = NAV_ITEMS.filter((item) => !item.roles || item.roles.includes(user.role));
+
   return (
-    <AppShell status={<LiveIndicator state={streamState} />} controls={<TemperatureUnitSwitch />}>
-      {navigation.state === "loading" && (
-        <div className="fixed inset-x-0 top-0 z-30 h-1 animate-pulse bg-accent" role="progressbar" aria-label="Loading page" />
-      )}
-      <Outlet />
-    </AppShell>
+    <AuthorizationProvider user={user}>
+      <TemperatureUnitProvider unit={user.temperatureUnit} onUnitChange={saveUnit}>
+        <AppShell
+          status={<LiveIndicator state={streamState} />}
+          nav={navItems.length > 1 ? <MainNav items={navItems} /> : undefined}
+          account={<UserMenu />}
+        >
+          {navigation.state === "loading" && (
+            <div className="fixed inset-x-0 top-0 z-30 h-1 animate-pulse bg-accent" role="progressbar" aria-label="Loading page" />
+          )}
+          <Outlet />
+        </AppShell>
+      </TemperatureUnitProvider>
+    </AuthorizationProvider>
   );
 }
 
-/** Shown while the first page's code and data load. */
+/** Shown while the session is restored and the first page's code and data load. */
 export function RootFallback() {
   return (
-    <AppShell controls={<TemperatureUnitSwitch />}>
+    <AppShell>
       <Loading label="Loading benches…" />
     </AppShell>
   );
@@ -31,7 +75,7 @@ export function RootFallback() {
 
 export function RootErrorBoundary() {
   return (
-    <AppShell controls={<TemperatureUnitSwitch />}>
+    <AppShell>
       <RouteError />
     </AppShell>
   );

@@ -1,12 +1,18 @@
-import { act, fireEvent, render, screen, within } from "@testing-library/react";
+import { act, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { RouterProvider, createMemoryRouter } from "react-router-dom";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import type { BenchReadingsResponse } from "../../../shared/schemas/readings.js";
 import { createQueryClient } from "../../lib/query-client";
-import { NOW_MS, WINDOWS, makeBench, makeZone, makeZones, reading } from "../../testing/data";
+import { NOW_MS, USERS, WINDOWS, makeBench, makeSession, makeZone, makeZones, reading } from "../../testing/data";
 import { FakeEventSource, createFetchStub } from "../../testing/fakes";
 import { AppProvider } from "../provider";
 import { createAppRoutes } from "../router";
+
+// Every page needs a session; the unit change is saved with PATCH /api/me.
+const SIGNED_IN = {
+  "/api/session": () => makeSession(USERS.viewer),
+  "/api/me": { user: { ...USERS.viewer, temperatureUnit: "C" } },
+};
 
 const ZONES = makeZones([
   makeZone({
@@ -67,7 +73,7 @@ describe("app routes", () => {
   });
 
   it("dashboard: zones with their site, bench cards, the out-of-window list, and live updates from the stream", async () => {
-    const { stub } = createFetchStub({ "/api/zones": ZONES });
+    const { stub } = createFetchStub({ ...SIGNED_IN, "/api/zones": ZONES });
     vi.stubGlobal("fetch", stub);
     renderApp("/");
 
@@ -97,7 +103,7 @@ describe("app routes", () => {
   }, TEST_TIMEOUT_MS);
 
   it("bench page: latest values, one chart panel per quantity with its window and the day's low and high", async () => {
-    const { stub, calls } = createFetchStub({ "/api/zones": ZONES, "/api/benches/2/readings": READINGS });
+    const { stub, calls } = createFetchStub({ ...SIGNED_IN, "/api/zones": ZONES, "/api/benches/2/readings": READINGS });
     vi.stubGlobal("fetch", stub);
     renderApp("/benches/2");
 
@@ -114,13 +120,14 @@ describe("app routes", () => {
     expect(air.textContent).toContain("Out of window 5 min");
     expect(within(screen.getByRole("figure", { name: "Medium moisture" })).getByText("No readings in the last 24 hours")).toBeTruthy();
 
-    // The °F/°C switch in the header applies here too.
+    // The °F/°C switch in the user menu applies here too.
+    fireEvent.click(screen.getByRole("button", { name: /your account/ }));
     fireEvent.click(screen.getByRole("button", { name: "°C" }));
-    expect(air.textContent).toContain("Low 16.5 °C");
+    await waitFor(() => expect(air.textContent).toContain("Low 16.5 °C"));
   }, TEST_TIMEOUT_MS);
 
   it("bench page: an unknown bench shows the server's not-found message and a way back", async () => {
-    const { stub } = createFetchStub({ "/api/zones": ZONES });
+    const { stub } = createFetchStub({ ...SIGNED_IN, "/api/zones": ZONES });
     vi.stubGlobal("fetch", stub);
     renderApp("/benches/9");
 

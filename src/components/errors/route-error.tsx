@@ -1,4 +1,5 @@
 import { isRouteErrorResponse, useRevalidator, useRouteError } from "react-router-dom";
+import { isApiError } from "../../lib/api-client";
 import { paths } from "../../config/paths";
 import { LinkButton } from "../ui/link-button";
 import { ErrorMessage } from "./error-message";
@@ -7,22 +8,23 @@ import { ErrorMessage } from "./error-message";
 export function RouteError() {
   const error = useRouteError();
   const revalidator = useRevalidator();
-  const shown = isRouteErrorResponse(error)
-    ? new Error(error.status === 404 ? "There is no page at this address." : `${error.status} ${error.statusText}`)
-    : error;
+  // Asking again will not change the role: no retry for a 403.
+  const isForbidden = (isRouteErrorResponse(error) || isApiError(error)) && error.status === 403;
   return (
     <div className="mx-auto max-w-2xl py-8">
       <ErrorMessage
-        error={shown}
+        error={error}
         action={
           <>
-            <button
-              type="button"
-              onClick={() => void revalidator.revalidate()}
-              className="min-h-touch rounded-lg border-2 border-ink bg-ink px-4 text-lg font-semibold text-page"
-            >
-              Try again
-            </button>
+            {!isForbidden && (
+              <button
+                type="button"
+                onClick={() => void revalidator.revalidate()}
+                className="min-h-touch rounded-lg border-2 border-ink bg-ink px-4 text-lg font-semibold text-page"
+              >
+                Try again
+              </button>
+            )}
             <LinkButton to={paths.dashboard.to()}>All benches</LinkButton>
           </>
         }

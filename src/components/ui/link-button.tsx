@@ -1,12 +1,8 @@
 import type { ComponentProps } from "react";
 import { Link } from "react-router-dom";
+import { buttonClasses, type ButtonVariant } from "./button";
 
-/** A router link shaped as a ≥ 44 px touch target. */
-export function LinkButton({ className = "", ...props }: ComponentProps<typeof Link>) {
-  return (
-    <Link
-      {...props}
-      className={`inline-flex min-h-touch items-center gap-2 rounded-lg border-2 border-line bg-surface px-4 text-lg font-semibold text-ink hover:border-accent ${className}`}
-    />
-  );
+/** A router link shaped as a ≥ 44 px touch target, in the same looks as Button. */
+export function LinkButton({ className = "", variant = "secondary", ...props }: ComponentProps<typeof Link> & { variant?: ButtonVariant }) {
+  return <Link {...props} className={buttonClasses(variant, className)} />;
 }
