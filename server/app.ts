@@ -52,6 +52,7 @@ export interface AppDeps {
   logger: Logger;
   jwtSecret: string;
   sessionHours: number;
+  demo: boolean;
   /** Folder of the built client (vite build); served with a fallback to index.html for client routes. */
   staticDir?: string;
 }
@@ -98,7 +99,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
   // Services that audit a change find the signed-in principal through this (modules/audit/actor-context.ts).
   app.use(actorContext());
   app.use(healthRoutes(table, deps.dataSource, deps.metrics));
-  app.use(sessionRoutes(table, deps.users, { secret: deps.jwtSecret, sessionHours: deps.sessionHours }));
+  app.use(sessionRoutes(table, deps.users, { secret: deps.jwtSecret, sessionHours: deps.sessionHours, demo: deps.demo }));
   app.use(usersRoutes(table, deps.users));
   app.use(sensorsRoutes(table, deps.sensors));
   app.use(mailRoutes(table, deps.dataSource));

@@ -305,6 +305,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       sensors,
       jwtSecret,
       sessionHours: env.SESSION_HOURS,
+      demo,
       hub,
       metrics,
       logger,

@@ -55,7 +55,12 @@ export const signInInputSchema = z.object({
 export type SignInInput = z.infer<typeof signInInputSchema>;
 
 /** POST /api/session, GET /api/session */
-export const sessionResponseSchema = z.object({ user: userSchema, expiresAtMs: z.number() });
+export const sessionResponseSchema = z.object({
+  user: userSchema,
+  expiresAtMs: z.number(),
+  /** True when this installation runs the demo nursery (the mailbox then holds the demo's mail). */
+  demo: z.boolean().default(false),
+});
 export type SessionResponse = z.infer<typeof sessionResponseSchema>;
 
 /** PATCH /api/me: what a user may change about themselves. */

@@ -69,7 +69,7 @@ export const USERS: Record<Role, User> = {
 };
 
 export function makeSession(user: User = USERS.admin): SessionResponse {
-  return { user, expiresAtMs: Date.now() + 12 * 3_600_000 };
+  return { user, expiresAtMs: Date.now() + 12 * 3_600_000, demo: true };
 }
 
 export function makeSensor(overrides: Partial<SensorView> = {}): SensorView {

@@ -7,6 +7,7 @@ import { toUserView, type UsersService } from "../users/users.service.js";
 export interface SessionOptions {
   secret: string;
   sessionHours: number;
+  demo: boolean;
 }
 
 function setSessionCookie(req: Request, res: Response, token: string, hours: number): void {
@@ -28,7 +29,7 @@ export function sessionRoutes(table: RouteTable, users: UsersService, options: S
     const user = await users.signIn(input.email, input.password, req.ip ?? "unknown");
     const { token, expiresAtMs } = signSessionToken(user, options.secret, options.sessionHours);
     setSessionCookie(req, res, token, options.sessionHours);
-    const body: SessionResponse = { user: toUserView(user), expiresAtMs };
+    const body: SessionResponse = { user: toUserView(user), expiresAtMs, demo: options.demo };
     res.json(body);
   });
 
@@ -36,7 +37,7 @@ export function sessionRoutes(table: RouteTable, users: UsersService, options: S
     const user = await users.findActive(req.principal!.userId);
     if (!user) throw new AppError("sign-in-required", "Sign in to continue", 401);
     const claims = verifySessionToken(tokenFromRequest(req)!, options.secret)!;
-    const body: SessionResponse = { user: toUserView(user), expiresAtMs: claims.expiresAtMs };
+    const body: SessionResponse = { user: toUserView(user), expiresAtMs: claims.expiresAtMs, demo: options.demo };
     res.json(body);
   });
 
