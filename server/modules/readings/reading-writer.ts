@@ -11,7 +11,11 @@ interface Pending {
 export interface ReadingWriterOptions {
   /** Flush when this many rows are waiting (SQLite's sweet spot is about 1,000 per transaction). */
   maxBatchRows?: number;
-  /** …or when the oldest waiting row has waited this long. */
+  /**
+   * …or when the oldest waiting row has waited this long. 0 (the default) = at the end of the
+   * current event-loop turn: whatever arrived together commits together ("group commit"), and a
+   * lone sensor replaying its backlog one message at a time is not held to one commit per timer.
+   */
   maxWaitMs?: number;
 }
 
@@ -22,7 +26,7 @@ export interface ReadingWriterOptions {
 export class ReadingWriter {
   private queue: Pending[] = [];
   private queuedRows = 0;
-  private timer: NodeJS.Timeout | null = null;
+  private timer: NodeJS.Timeout | NodeJS.Immediate | null = null;
   private closed = false;
   private readonly maxBatchRows: number;
   private readonly maxWaitMs: number;
@@ -35,7 +39,7 @@ export class ReadingWriter {
     options: ReadingWriterOptions = {},
   ) {
     this.maxBatchRows = options.maxBatchRows ?? 1000;
-    this.maxWaitMs = options.maxWaitMs ?? 25;
+    this.maxWaitMs = options.maxWaitMs ?? 0;
   }
 
   enqueue(rows: ReadingRow[]): Promise<void> {
@@ -45,13 +49,16 @@ export class ReadingWriter {
       this.queue.push({ rows, resolve, reject });
       this.queuedRows += rows.length;
       if (this.queuedRows >= this.maxBatchRows) this.flush();
-      else this.timer ??= setTimeout(() => this.flush(), this.maxWaitMs);
+      else this.timer ??= this.maxWaitMs > 0 ? setTimeout(() => this.flush(), this.maxWaitMs) : setImmediate(() => this.flush());
     });
   }
 
   /** Write everything waiting now, in one transaction. */
   flush(): void {
-    if (this.timer) clearTimeout(this.timer);
+    if (this.timer) {
+      clearTimeout(this.timer as NodeJS.Timeout);
+      clearImmediate(this.timer as NodeJS.Immediate);
+    }
     this.timer = null;
     const batch = this.queue;
     if (batch.length === 0) return;
