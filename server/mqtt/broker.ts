@@ -1,10 +1,18 @@
 import { createServer, type AddressInfo, type Server } from "node:net";
+import { Duplex, pipeline } from "node:stream";
 import { Aedes, type AuthenticateError, type Client } from "aedes";
 import type { Logger } from "../lib/logger.js";
 import type { Metrics } from "../lib/metrics.js";
 import type { SensorsService } from "../modules/sensors/sensors.service.js";
 import type { IngestReadings } from "./ingest.js";
+import { ConnectionGuard } from "./connection-guard.js";
 import { parseSensorTopic } from "./topics.js";
+
+/**
+ * Limits per connection. A SenML pack of a probe is a few hundred bytes; 64 KiB leaves room for a
+ * batched backlog. 64 KiB/s sustained (256 KiB burst) is far above what any probe sends.
+ */
+export const MQTT_LIMITS = { maxPacketBytes: 64 * 1024, bytesPerSecond: 64 * 1024, burstBytes: 256 * 1024 };
 
 export interface EmbeddedBroker {
   port: number;
@@ -19,6 +27,7 @@ export interface BrokerDeps {
   ingest: IngestReadings;
   logger: Logger;
   onSensorOffline?: (sensorId: string) => void;
+  limits?: Partial<typeof MQTT_LIMITS>;
 }
 
 function authError(message: string, returnCode: 4 | 5): AuthenticateError {
@@ -94,7 +103,22 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
   });
   broker.on("clientError", (client, err) => logger.debug({ clientId: client.id, err: err.message }, "MQTT client error"));
 
-  const server: Server = createServer(broker.handle);
+  const limits = { ...MQTT_LIMITS, ...deps.limits };
+  const server: Server = createServer((socket) => {
+    const guard = new ConnectionGuard({
+      ...limits,
+      onOversized: (bytes) => {
+        metrics.mqttRefused.inc({ reason: "packet-too-large" });
+        logger.warn({ bytes, remote: socket.remoteAddress }, "MQTT packet over the size limit; connection closed");
+      },
+      onThrottled: () => metrics.mqttRefused.inc({ reason: "rate-limited" }),
+    });
+    // aedes reads the guarded stream and writes straight to the socket.
+    pipeline(socket, guard, () => socket.destroy());
+    const duplex = Duplex.from({ readable: guard, writable: socket });
+    duplex.on("error", () => socket.destroy());
+    broker.handle(duplex as unknown as Parameters<typeof broker.handle>[0]);
+  });
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
     server.listen(port, host, () => resolve());

@@ -1,0 +1,58 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { connectSensor, startTestServer, type TestServer } from "../support/test-server.js";
+
+let server: TestServer;
+
+beforeAll(async () => {
+  server = await startTestServer();
+});
+
+afterAll(async () => {
+  await server.cleanup();
+});
+
+describe("broker limits", () => {
+  it("a packet over 64 KiB closes that sensor's connection and is counted; others carry on", async () => {
+    const [big, small] = server.credentials.filter((c) => c.kind === "air");
+    const offender = await connectSensor(server, big!);
+    const closed = new Promise<void>((r) => offender.once("close", () => r()));
+    offender.publish(`benchwarden/v1/sensors/${big!.id}/readings`, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 20, vs: "x".repeat(100_000) }]), { qos: 1 });
+    await closed;
+    expect(server.metrics.mqttRefused.get({ reason: "packet-too-large" })).toBe(1);
+
+    const other = await connectSensor(server, small!);
+    await other.publishAsync(`benchwarden/v1/sensors/${small!.id}/readings`, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 22 }]), { qos: 1 });
+    await other.endAsync();
+    offender.end(true);
+  });
+
+  it("a flooding client is slowed down while another sensor's readings are still acknowledged promptly", async () => {
+    const [flooder, honest] = server.credentials.filter((c) => c.kind === "combined");
+    const flood = await connectSensor(server, flooder!);
+    const topic = `benchwarden/v1/sensors/${flooder!.id}/readings`;
+    const padding = "p".repeat(4000);
+    let stop = false;
+    const flooding = (async () => {
+      // About 1 MB/s offered for two seconds: far over the 64 KiB/s a connection may send.
+      for (let i = 0; i < 500 && !stop; i++) {
+        flood.publish(topic, JSON.stringify([{ n: "battery", u: "%EL", v: 50, t: Date.now() / 1000 - 60 + i / 1000, vs: padding }]), { qos: 0 });
+        await new Promise((r) => setTimeout(r, 4));
+      }
+    })();
+
+    const good = await connectSensor(server, honest!);
+    const latencies: number[] = [];
+    for (let i = 0; i < 10; i++) {
+      const sent = Date.now();
+      await good.publishAsync(`benchwarden/v1/sensors/${honest!.id}/readings`, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 22, t: Date.now() / 1000 }]), { qos: 1 });
+      latencies.push(Date.now() - sent);
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    stop = true;
+    await flooding;
+    expect(server.metrics.mqttRefused.get({ reason: "rate-limited" })).toBeGreaterThan(0);
+    expect(Math.max(...latencies)).toBeLessThan(500);
+    await good.endAsync();
+    flood.end(true);
+  });
+});
