@@ -5,6 +5,7 @@ import express, { type Express } from "express";
 import helmet from "helmet";
 import type { DataSource } from "typeorm";
 import { RouteTable, tokenFromRequest, verifySessionToken, type Principal } from "./lib/auth.js";
+import { refuseCrossSite } from "./lib/cross-site.js";
 import { apiNotFound, createErrorHandler } from "./lib/error-handler.js";
 import type { Logger } from "./lib/logger.js";
 import type { Metrics } from "./lib/metrics.js";
@@ -80,8 +81,8 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
       strictTransportSecurity: false,
     }),
   );
+  app.use("/api", refuseCrossSite);
   app.use(express.json({ limit: "100kb" }));
-  app.use(express.urlencoded({ extended: false, limit: "100kb" }));
   app.use(cookieParser());
 
   // Who is asking: a valid session token for an active user whose password has not changed since.

@@ -5,6 +5,7 @@ import mqtt, { type MqttClient } from "mqtt";
 import { parseEnv } from "../../server/config/env.js";
 import type { DemoSensorCredential } from "../../server/demo/seed.js";
 import { start, type RunningServer } from "../../server/index.js";
+import type { Logger } from "../../server/lib/logger.js";
 
 export interface TestServer extends RunningServer {
   baseUrl: string;
@@ -19,7 +20,12 @@ export interface TestServer extends RunningServer {
  */
 export async function startTestServer(
   env: Record<string, string> = {},
-  options: { staticDir?: string; /** Reuse a database folder (a restart); it is then not deleted. */ dir?: string } = {},
+  options: {
+    staticDir?: string;
+    /** Reuse a database folder (a restart); it is then not deleted. */
+    dir?: string;
+    logger?: Logger;
+  } = {},
 ): Promise<TestServer> {
   const dir = options.dir ?? mkdtempSync(join(tmpdir(), "benchwarden-test-"));
   const server = await start(
@@ -35,7 +41,7 @@ export async function startTestServer(
       DEMO_PASSWORD: TEST_DEMO_PASSWORD,
       ...env,
     }),
-    { staticDir: options.staticDir ?? join(dir, "no-client") },
+    { staticDir: options.staticDir ?? join(dir, "no-client"), logger: options.logger },
   );
   const credentials = JSON.parse(readFileSync(server.demoCredentialsPath!, "utf8")) as DemoSensorCredential[];
   return {
