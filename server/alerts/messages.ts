@@ -46,6 +46,7 @@ export function describeValues(alert: AlertView, unit: TemperatureUnit): string 
   if (alert.kind === "sensor-silent") return "no reading received";
   if (alert.kind === "condensation") {
     if (alert.lastValue === null) return "";
+    if (alert.lastValue < 0.05) return "air at its dew point: leaves and surfaces are getting wet";
     const margin = unit === "F" ? `${celsiusDeltaToFahrenheit(alert.lastValue).toFixed(1)} °F` : `${alert.lastValue.toFixed(1)} °C`;
     return `air only ${margin} above its dew point`;
   }
@@ -106,7 +107,12 @@ function escapeHtml(text: string): string {
 /** The e-mail for one recipient: plain text and HTML that read well on a phone, in their unit. */
 export function composeMessage(ctx: MessageContext): ComposedMessage {
   const unit = ctx.recipient.unit;
-  const lines = ctx.alerts.map((a) => {
+  // Bench by bench, in the order a grower walks them; on one bench, out-of-window before the rest.
+  const KIND_ORDER = { window: 0, condensation: 1, "sensor-silent": 2 } as const;
+  const ordered = [...ctx.alerts].sort(
+    (a, b) => a.benchName.localeCompare(b.benchName, "en", { numeric: true }) || KIND_ORDER[a.kind] - KIND_ORDER[b.kind],
+  );
+  const lines = ordered.map((a) => {
     const head = `${a.benchName}: ${a.summary}`;
     const detail = describeValues(a, unit);
     const since = ctx.type === "cleared" && a.clearedAtMs
