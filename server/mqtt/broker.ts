@@ -105,6 +105,9 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
 
   const limits = { ...MQTT_LIMITS, ...deps.limits };
   const server: Server = createServer((socket) => {
+    // aedes turns Nagle off on the sockets it is given; it is given the guard, so do it here,
+    // or every PUBACK waits ~40 ms for the client's delayed ACK.
+    socket.setNoDelay(true);
     const guard = new ConnectionGuard({
       ...limits,
       onOversized: (bytes) => {
