@@ -44,6 +44,7 @@ import { LayoutService } from "./modules/layout/layout.service.js";
 import { AuditService } from "./modules/audit/audit.service.js";
 import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
+import { createPropagation } from "./modules/batches/propagation.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
 import { createIngest } from "./mqtt/ingest.js";
 
@@ -246,6 +247,18 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         passRunning = null;
       }
     })());
+  // Notices are due when their grouping interval ends: run the notifier then, not at the next tick.
+  let noticeTimer: NodeJS.Timeout | null = null;
+  engine.onNoticesWritten = () => {
+    if (noticeTimer) return;
+    noticeTimer = setTimeout(() => {
+      noticeTimer = null;
+      void notifier
+        .flush()
+        .then(() => outbox.sendDue())
+        .catch((err: unknown) => logger.error({ err }, "sending alert mail failed"));
+    }, env.ALERT_GROUP_WINDOW);
+  };
   const alertTimer = setInterval(() => void pass().catch((err: unknown) => logger.error({ err }, "alert round failed")), env.ALERT_TICK);
   alertTimer.unref();
   outbox.start();
@@ -264,6 +277,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         await Promise.race([exited, new Promise((r) => setTimeout(r, 3000))]);
       }
       clearInterval(alertTimer);
+      if (noticeTimer) clearTimeout(noticeTimer);
       hub.close();
       if (http) {
         http.closeAllConnections();
@@ -297,6 +311,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       windowSettings,
       audit: new AuditService(dataSource),
       exports: new ExportsService(dataSource),
+      ...createPropagation({ dataSource, windows, alerts: alertsService, mailer: outbox, logger, databasePath: env.DATABASE_PATH, silentAfterMs: env.SENSOR_SILENT_AFTER, appUrl: () => resolvedAppUrl }),
       zones: new ZonesService(dataSource, repository, windows, alertsService),
       alerts: alertsService,
       rota: new RotaService(dataSource),

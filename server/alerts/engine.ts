@@ -66,6 +66,9 @@ export class AlertEngine {
   private readonly air = new Map<number, AirPair>();
   private queue: Promise<unknown> = Promise.resolve();
   private startedAtMs = 0;
+  private noticesWritten = false;
+  /** Told after a commit that wrote notices, so the notifier can run when their group is due. */
+  onNoticesWritten: () => void = () => {};
 
   constructor(
     private readonly dataSource: DataSource,
@@ -192,6 +195,7 @@ export class AlertEngine {
         if (row.quantity === "air.temperature" || row.quantity === "air.humidity") await this.evaluateCondensation(tx, row, nowMs, changed);
       }
     });
+    this.announceNotices();
     if (changed.length) this.onAlertsChanged([...new Set(changed)]);
   }
 
@@ -225,6 +229,7 @@ export class AlertEngine {
     t.benchId = sensor.benchId;
     const result = evaluateSample(t.state, SILENCE_WINDOW, { timeMs: Math.max(nowMs, t.state.lastSampleMs ?? 0), value: 1 });
     await this.dataSource.transaction((tx) => this.step(tx, t, result.transitions, result.state, nowMs, changed, null));
+    this.announceNotices();
     if (changed.length) this.onAlertsChanged(changed);
   }
 
@@ -243,6 +248,7 @@ export class AlertEngine {
       }
       await this.escalateAndRemind(tx, nowMs, changed);
     });
+    this.announceNotices();
     // Silence: every enabled sensor on a bench that has not reported for the limit (counted from
     // start-up for one never heard from, so a restart does not call the whole fleet silent).
     const sensors = await this.dataSource.getRepository(SensorEntity).find();
@@ -271,6 +277,13 @@ export class AlertEngine {
 
   private async notice(tx: EntityManager, alert: AlertRecord, type: NoticeType, nowMs: number): Promise<void> {
     await tx.getRepository(AlertNoticeEntity).insert({ alertId: alert.id, zoneId: alert.zoneId, type, createdAtMs: nowMs, queuedAtMs: null });
+    this.noticesWritten = true;
+  }
+
+  private announceNotices(): void {
+    if (!this.noticesWritten) return;
+    this.noticesWritten = false;
+    this.onNoticesWritten();
   }
 
   private async saveTracker(tx: EntityManager, t: Tracker): Promise<void> {
@@ -342,9 +355,9 @@ export class AlertEngine {
         t.alertId = null;
       }
     }
-    if (transitions.length > 0 || phaseBefore !== t.state.phase) {
-      await this.saveTracker(tx, t);
-    } else if (t.alertId !== null && value !== null && t.kind !== "sensor-silent") {
+    if (transitions.length > 0 || phaseBefore !== t.state.phase) await this.saveTracker(tx, t);
+    // The open alert shows the newest value (a raise carries the value held at the due time).
+    if (t.alertId !== null && value !== null && t.kind !== "sensor-silent") {
       await alerts.update({ id: t.alertId }, { lastValue: value, worstValue: t.state.worstValue, updatedAtMs: nowMs });
     }
   }

@@ -47,8 +47,19 @@ export class Notifier {
     return users.length > 0 ? { users, fromRota: true } : { users: await this.managers(), fromRota: false };
   }
 
-  /** Queue e-mail for every group whose grouping interval has passed. */
-  async flush(): Promise<number> {
+  private chain: Promise<unknown> = Promise.resolve();
+
+  /**
+   * Queue e-mail for every group whose grouping interval has passed. Runs one at a time: two
+   * overlapping flushes would both see the same waiting notices and mail them twice.
+   */
+  flush(): Promise<number> {
+    const run = this.chain.then(() => this.flushOnce());
+    this.chain = run.catch(() => undefined);
+    return run;
+  }
+
+  private async flushOnce(): Promise<number> {
     const nowMs = this.now();
     const waiting = await this.dataSource.getRepository(AlertNoticeEntity).find({ where: { queuedAtMs: IsNull() }, order: { id: "ASC" } });
     const groups = new Map<string, AlertNoticeRecord[]>();
