@@ -301,6 +301,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       ingest: createIngest({ sensors, writer, metrics, logger }),
       logger,
       onSensorOffline: (sensorId) => void engine.onSensorOffline(sensorId),
+      limits: { maxPacketBytes: env.MQTT_MAX_PACKET_BYTES, bytesPerSecond: env.MQTT_BYTES_PER_SECOND, burstBytes: 4 * env.MQTT_BYTES_PER_SECOND },
     });
     sensors.onRevoked = (sensorId) => broker?.disconnectSensor(sensorId);
 
