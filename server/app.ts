@@ -34,9 +34,15 @@ import type { UsersService } from "./modules/users/users.service.js";
 import type { WindowSettingsService } from "./modules/windows/window-settings.service.js";
 import { windowsRoutes } from "./modules/windows/windows.routes.js";
 import { zonesRoutes } from "./modules/zones/zones.routes.js";
+import { batchesRoutes } from "./modules/batches/batches.routes.js";
+import type { PropagationServices } from "./modules/batches/propagation.js";
+import { observationsRoutes } from "./modules/observations/observations.routes.js";
+import { photosRoutes } from "./modules/photos/photos.routes.js";
+import { reportsRoutes } from "./modules/reports/reports.routes.js";
+import { roundsRoutes } from "./modules/rounds/rounds.routes.js";
 import type { ZonesService } from "./modules/zones/zones.service.js";
 
-export interface AppDeps {
+export interface AppDeps extends PropagationServices {
   dataSource: DataSource;
   zones: ZonesService;
   readings: ReadingsService;
@@ -113,6 +119,11 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
   app.use(windowsRoutes(table, deps.windowSettings));
   app.use(auditRoutes(table, deps.audit));
   app.use(exportsRoutes(table, deps.exports));
+  app.use(batchesRoutes(table, deps.batches));
+  app.use(observationsRoutes(table, deps.observations));
+  app.use(photosRoutes(table, deps.photos, deps.observations));
+  app.use(roundsRoutes(table, deps.rounds));
+  app.use(reportsRoutes(table, deps.reports));
   app.use("/api", apiNotFound);
 
   const staticDir = deps.staticDir;

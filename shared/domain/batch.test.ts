@@ -7,10 +7,15 @@ import {
   daysBetween,
   daysToFirst,
   daysToFirstStage,
+  BATCH_STAGES,
+  currentStage,
   hasReachedStage,
+  latestCounts,
   lossRate,
+  pooledInsidePct,
   pooledStrikeRate,
   strikeRate,
+  summariseDays,
 } from "./batch.js";
 
 // Definitions: strike rate = rooted / stuck (PRODUCT.md §3, the trade's own word); loss rate = lost / stuck.
@@ -62,34 +67,34 @@ describe("days from sticking to callus and roots", () => {
   const stuckOn = "2025-01-20";
   const observations = [
     { date: "2025-01-27", stage: "stuck" },
-    { date: "2025-02-10", stage: "callus" },
+    { date: "2025-02-10", stage: "callused" },
     { date: "2025-02-03", stage: "stuck" },
     { date: "2025-02-24", stage: "root-initials" },
     { date: "2025-03-10", stage: "rooted" },
   ];
 
   it("first callus 21 days, first root initials 35 days, rooted 49 days", () => {
-    expect(daysToFirstStage(stuckOn, observations, "callus")).toEqual({ ok: true, value: 21 });
+    expect(daysToFirstStage(stuckOn, observations, "callused")).toEqual({ ok: true, value: 21 });
     expect(daysToFirstStage(stuckOn, observations, "root-initials")).toEqual({ ok: true, value: 35 });
     expect(daysToFirstStage(stuckOn, observations, "rooted")).toEqual({ ok: true, value: 49 });
   });
 
   it("a later stage implies the earlier ones: roots seen first still dates the callus", () => {
-    expect(daysToFirstStage(stuckOn, [{ date: "2025-02-24", stage: "root-initials" }], "callus")).toEqual({ ok: true, value: 35 });
-    expect(hasReachedStage("bud-break", "callus")).toBe(false);
+    expect(daysToFirstStage(stuckOn, [{ date: "2025-02-24", stage: "root-initials" }], "callused")).toEqual({ ok: true, value: 35 });
+    expect(hasReachedStage("bud-break", "callused")).toBe(false);
   });
 
   it("not reached yet → null; a generic predicate works too", () => {
-    expect(daysToFirstStage(stuckOn, observations.slice(0, 1), "callus")).toEqual({ ok: true, value: null });
+    expect(daysToFirstStage(stuckOn, observations.slice(0, 1), "callused")).toEqual({ ok: true, value: null });
     expect(daysToFirst(stuckOn, [{ date: "2025-02-01", mould: true }], (o) => o.mould)).toEqual({ ok: true, value: 12 });
   });
 
   it("invalid dates and observations before sticking are refused", () => {
-    const early = daysToFirstStage(stuckOn, [{ date: "2025-01-19", stage: "callus" }], "callus");
+    const early = daysToFirstStage(stuckOn, [{ date: "2025-01-19", stage: "callused" }], "callused");
     expect(!early.ok && early.reason).toBe("date-before-sticking");
-    const invalid = daysToFirstStage("2025-02-30", [], "callus");
+    const invalid = daysToFirstStage("2025-02-30", [], "callused");
     expect(!invalid.ok && invalid.reason).toBe("invalid-date");
-    const badObservation = daysToFirstStage(stuckOn, [{ date: "10/02/2025", stage: "callus" }], "callus");
+    const badObservation = daysToFirstStage(stuckOn, [{ date: "10/02/2025", stage: "callused" }], "callused");
     expect(!badObservation.ok && badObservation.reason).toBe("invalid-date");
   });
 
@@ -100,6 +105,50 @@ describe("days from sticking to callus and roots", () => {
     expect(daysBetween("2025-03-10", "2025-03-08")).toEqual({ ok: true, value: -2 });
     expect(calendarDayNumber("1970-01-01")).toBe(0);
     expect(calendarDayNumber("2023-02-29")).toBeUndefined();
+  });
+});
+
+describe("stages, counts so far and summaries (issue 6 §1)", () => {
+  // The stage path stuck → callused → root initials → rooted → potted on is common practice for stem cuttings.
+  it("potted on implies rooted; lost reaches no stage on the path", () => {
+    expect(hasReachedStage("potted-on", "rooted")).toBe(true);
+    expect(hasReachedStage("rooted", "potted-on")).toBe(false);
+    expect(hasReachedStage("lost", "callused")).toBe(false);
+    expect(BATCH_STAGES).toEqual(["stuck", "callused", "root-initials", "rooted", "potted-on", "lost"]);
+  });
+
+  it("the current stage is the latest observation's (by date, then recorded time); none → stuck", () => {
+    expect(currentStage([])).toBe("stuck");
+    expect(
+      currentStage([
+        { date: "2025-02-10", stage: "root-initials", recordedAtMs: 1 },
+        { date: "2025-02-10", stage: "callused", recordedAtMs: 2 },
+        { date: "2025-02-03", stage: "rooted" },
+      ]),
+    ).toBe("callused");
+  });
+
+  it("counts are running totals: the latest count of each wins, independently; never counted → 0", () => {
+    const observations = [
+      { date: "2025-02-10", stage: "callused", rooted: null, lost: 3 },
+      { date: "2025-03-01", stage: "rooted", rooted: 120, lost: null },
+      { date: "2025-02-20", stage: "root-initials", rooted: 40, lost: 5 },
+    ];
+    expect(latestCounts(observations)).toEqual({ rooted: 120, lost: 5 });
+    expect(latestCounts([])).toEqual({ rooted: 0, lost: 0 });
+  });
+
+  it("days summary: mean and median (middle value; mean of the two middle for an even count) of those reached", () => {
+    expect(summariseDays([21, null, 35, 28])).toEqual({ reached: 3, of: 4, meanDays: 28, medianDays: 28 });
+    expect(summariseDays([20, 30, 31, 40])).toEqual({ reached: 4, of: 4, meanDays: 30.25, medianDays: 30.5 });
+    expect(summariseDays([null, null])).toEqual({ reached: 0, of: 2, meanDays: null, medianDays: null });
+  });
+
+  it("pooled share inside weighs stretches by their time with data: (9 h + 1 h) / (10 h + 10 h) = 50 %", () => {
+    const h = 3_600_000;
+    expect(pooledInsidePct([{ insideMs: 9 * h, dataMs: 10 * h }, { insideMs: 1 * h, dataMs: 10 * h }])).toBe(50);
+    expect(pooledInsidePct([{ insideMs: 9 * h, dataMs: 10 * h }, { insideMs: 0, dataMs: 0 }])).toBe(90);
+    expect(pooledInsidePct([])).toBeNull();
   });
 });
 

@@ -118,13 +118,19 @@ export function daysBetween(fromDate: string, toDate: string): BatchResult<numbe
 }
 
 /**
- * The stages a cutting goes through, in order. An observation at a later stage implies the
- * earlier ones (roots seen → it has callused).
+ * The stages a batch of cuttings goes through, in order (issue 6 §1): stuck → callused → root
+ * initials → rooted → potted on. An observation at a later stage implies the earlier ones (roots
+ * seen → it has callused). The order is the trade's ordinary sequence for stem cuttings (common
+ * practice). "lost" is not on this path: see BATCH_STAGES.
  */
-export const PROPAGATION_STAGES = ["stuck", "callus", "root-initials", "rooted"] as const;
+export const PROPAGATION_STAGES = ["stuck", "callused", "root-initials", "rooted", "potted-on"] as const;
 export type PropagationStage = (typeof PROPAGATION_STAGES)[number];
 
-/** Whether `stage` is `target` or later. Unknown stages (e.g. "bud-break", a separate flag) reach nothing. */
+/** Every stage a batch can be recorded at: the propagation path, plus "lost" (the whole batch failed). */
+export const BATCH_STAGES = [...PROPAGATION_STAGES, "lost"] as const;
+export type BatchStage = (typeof BATCH_STAGES)[number];
+
+/** Whether `stage` is `target` or later on the path. "lost" and unknown stages reach nothing. */
 export function hasReachedStage(stage: string, target: PropagationStage): boolean {
   const index = PROPAGATION_STAGES.indexOf(stage as PropagationStage);
   return index >= 0 && index >= PROPAGATION_STAGES.indexOf(target);
@@ -161,11 +167,90 @@ export function daysToFirst<T extends { date: string }>(
   return { ok: true, value: first };
 }
 
-/** Days from sticking to the first observation of `target` or a later stage (e.g. "callus", "root-initials"). */
+/** Days from sticking to the first observation of `target` or a later stage (e.g. "callused", "root-initials"). */
 export function daysToFirstStage(
   stuckOnDate: string,
   observations: readonly StageObservation[],
   target: PropagationStage,
 ): BatchResult<number | null> {
   return daysToFirst(stuckOnDate, observations, (o) => hasReachedStage(o.stage, target));
+}
+
+/** An observation as the batch arithmetic reads it: its date, stage and (optional) counts so far. */
+export interface CountedObservation extends StageObservation {
+  /** Cuttings rooted so far (a running total as seen that day), or null when not counted. */
+  rooted: number | null;
+  /** Cuttings lost so far (a running total), or null when not counted. */
+  lost: number | null;
+  /** Tie-break between observations of one date: later recorded wins (ms since 1970). */
+  recordedAtMs?: number;
+}
+
+function byDateThenRecorded<T extends { date: string; recordedAtMs?: number }>(a: T, b: T): number {
+  return a.date < b.date ? -1 : a.date > b.date ? 1 : (a.recordedAtMs ?? 0) - (b.recordedAtMs ?? 0);
+}
+
+/**
+ * The batch's stage now: that of the latest observation (by date, then by when it was recorded),
+ * or "stuck" when there is none. The latest wins even when it names an earlier stage than one
+ * before it: the grower's latest look is the best knowledge (days-to figures still use the first).
+ */
+export function currentStage(observations: readonly (StageObservation & { recordedAtMs?: number })[]): string {
+  const latest = [...observations].sort(byDateThenRecorded).at(-1);
+  return latest?.stage ?? "stuck";
+}
+
+/**
+ * The counts as of the latest observation: observation counts are running totals ("so far"), so
+ * the latest observation that counted each wins (rooted and lost independently); 0 when never counted.
+ * Running totals rather than increments keep a re-sent or edited observation from counting twice.
+ */
+export function latestCounts(observations: readonly CountedObservation[]): { rooted: number; lost: number } {
+  let rooted: CountedObservation | undefined;
+  let lost: CountedObservation | undefined;
+  for (const o of [...observations].sort(byDateThenRecorded)) {
+    if (o.rooted !== null) rooted = o;
+    if (o.lost !== null) lost = o;
+  }
+  return { rooted: rooted?.rooted ?? 0, lost: lost?.lost ?? 0 };
+}
+
+export interface DaysSummary {
+  /** How many batches reached the stage. */
+  reached: number;
+  /** How many batches were looked at. */
+  of: number;
+  /** Mean and median days of those that reached it; null when none did. */
+  meanDays: number | null;
+  medianDays: number | null;
+}
+
+/**
+ * Days-to figures of several batches (e.g. days to callus of every batch of a variety): how many
+ * reached it, mean and median of those that did. null entries (not reached yet) count in `of` only.
+ * Median: the middle value, or the mean of the two middle values of an even count.
+ */
+export function summariseDays(values: readonly (number | null)[]): DaysSummary {
+  const reached = values.filter((v): v is number => v !== null && Number.isFinite(v)).sort((a, b) => a - b);
+  const n = reached.length;
+  if (n === 0) return { reached: 0, of: values.length, meanDays: null, medianDays: null };
+  const mid = Math.floor(n / 2);
+  const median = n % 2 === 1 ? (reached[mid] as number) : ((reached[mid - 1] as number) + (reached[mid] as number)) / 2;
+  return { reached: n, of: values.length, meanDays: reached.reduce((s, v) => s + v, 0) / n, medianDays: median };
+}
+
+/**
+ * The share of time inside the window over several stretches (batches, or the benches one batch
+ * sat on), 0–100: Σ inside / Σ time with data, so long stretches weigh more. null when no stretch
+ * has data.
+ */
+export function pooledInsidePct(parts: readonly { insideMs: number; dataMs: number }[]): number | null {
+  let inside = 0;
+  let data = 0;
+  for (const p of parts) {
+    if (!(p.dataMs > 0)) continue;
+    inside += p.insideMs;
+    data += p.dataMs;
+  }
+  return data > 0 ? (100 * inside) / data : null;
 }

@@ -20,6 +20,8 @@ export const auditEntityTypeSchema = z.enum([
   "window-preset",
   "sensor-assignment",
   "duty-rota",
+  /** A batch of cuttings (issue 6): created, edited, moved, closed, reopened. */
+  "batch",
 ]);
 export type AuditEntityType = z.infer<typeof auditEntityTypeSchema>;
 
@@ -35,6 +37,11 @@ export const auditActionSchema = z.enum([
   "reordered",
   /** A sensor put on a bench, moved, or taken off one. */
   "assigned",
+  /** A batch moved to another bench (benchId old → new; the note says from when). */
+  "moved",
+  /** A batch closed with an outcome, or reopened. */
+  "closed",
+  "reopened",
 ]);
 export type AuditAction = z.infer<typeof auditActionSchema>;
 

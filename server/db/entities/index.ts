@@ -12,6 +12,9 @@ import { ZoneEntity } from "./zone.entity.js";
 import { AuditEntryEntity } from "./audit-entry.entity.js";
 import { SensorAssignmentEntity } from "./sensor-assignment.entity.js";
 import { WindowPresetEntity } from "./window-preset.entity.js";
+import { BatchEntity, BatchPlacementEntity } from "./batch.entity.js";
+import { ObservationEntity, ObservationPhotoEntity } from "./observation.entity.js";
+import { WalkRoundBenchEntity, WalkRoundEntity } from "./walk-round.entity.js";
 
 export const ENTITIES = [
   AppMetaEntity,
@@ -34,4 +37,10 @@ export const ENTITIES = [
   SensorAssignmentEntity,
   AuditEntryEntity,
   WindowPresetEntity,
+  BatchEntity,
+  BatchPlacementEntity,
+  ObservationEntity,
+  ObservationPhotoEntity,
+  WalkRoundEntity,
+  WalkRoundBenchEntity,
 ];
