@@ -1,4 +1,4 @@
-import { mkdirSync, statSync } from "node:fs";
+import { cpSync, existsSync, mkdirSync, statSync } from "node:fs";
 import { dirname, join, resolve } from "node:path";
 import Database from "better-sqlite3";
 import { Command } from "commander";
@@ -32,6 +32,14 @@ const program = new Command()
     const destination = resolve(opts.to ?? join(dirname(env.DATABASE_PATH), "backups", `benchwarden-${stamp}.sqlite`));
     const result = await backupDatabase(env.DATABASE_PATH, destination);
     console.log(`Backed up ${env.DATABASE_PATH} to ${result.path} (${(result.bytes / 1024 / 1024).toFixed(1)} MB).`);
+    // Photos are files beside the database, written once and never changed: a plain copy after
+    // the database snapshot holds every photo the snapshot refers to.
+    const photos = join(dirname(env.DATABASE_PATH), "photos");
+    if (existsSync(photos)) {
+      const photosCopy = destination.replace(/\.sqlite$/, "") + "-photos";
+      cpSync(photos, photosCopy, { recursive: true });
+      console.log(`Photos copied to ${photosCopy}.`);
+    }
   });
 
 if (process.argv[1] && resolve(process.argv[1]) === resolve(import.meta.filename)) {
