@@ -93,7 +93,7 @@ describe("a bench out of window", () => {
     // 15 °C for 12 minutes; the demo window is 70–80 °F with a 10-minute hold-off.
     await publish(server, air, coldFor([720, 360, 0], 15));
     await settle(server);
-    const mails = await waitFor(async () => ((await mailbox(server, admin)).length > 0 ? mailbox(server, admin) : undefined), 3000);
+    const mails = await waitFor(async () => ((await mailbox(server, admin)).length > 0 ? mailbox(server, admin) : undefined), 5000);
     expect(mails).toHaveLength(1);
     const [mail] = mails;
     expect(mail!.to).toEqual(["grower@nursery.test"]);
@@ -141,7 +141,7 @@ describe("a bench out of window", () => {
     const mails = await waitFor(async () => {
       const all = await mailbox(server, admin);
       return all.length >= 2 ? all : undefined;
-    }, 3000);
+    }, 5000);
     expect(mails[0]!.subject).toBe("All clear: House 1 · Fig cuttings, Bench 1 back in window");
     expect(mails[0]!.text).not.toContain("/ack?token=");
     expect((await openAlerts(server, admin)).filter((a) => a.benchId === air.benchId)).toHaveLength(0);

@@ -68,7 +68,7 @@ export async function connectSensor(server: RunningServer, credential: { id: str
 }
 
 /** Poll until check() returns a value (not undefined), or fail after timeoutMs. */
-export async function waitFor<T>(check: () => Promise<T | undefined>, timeoutMs = 2000, stepMs = 50): Promise<T> {
+export async function waitFor<T>(check: () => Promise<T | undefined>, timeoutMs = 5000, stepMs = 50): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await check();
