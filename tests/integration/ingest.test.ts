@@ -52,7 +52,7 @@ describe("MQTT ingest", () => {
     const latest = await waitFor(async () => {
       const bench = await benchSummary(credential.benchId);
       return bench.latest.find((l) => l.quantity === "air.temperature" && l.value === 23.4);
-    });
+    }, 2000);
     expect(latest.status).toBe("inside");
     expect(latest.timeMs).toBe(t * 1000);
   });
