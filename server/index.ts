@@ -64,6 +64,8 @@ export interface RunningServer {
   users: UsersService;
   /** The Express app, for tests that inspect its routes. */
   app: Express;
+  /** The embedded broker. */
+  mqtt: EmbeddedBroker;
   /** The alert pipeline, for tests that drive time: pass() runs one evaluation → grouping → sending round. */
   alerts: { engine: AlertEngine; notifier: Notifier; outbox: Outbox; service: AlertsService; pass(): Promise<void> };
   dataSource: DataSource;
@@ -263,6 +265,21 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   alertTimer.unref();
   outbox.start();
   metrics.addGauge("benchwarden_stream_clients", "Open live-stream connections", () => hub.clientCount);
+  metrics.addGauge(
+    "benchwarden_alerts",
+    "Alerts not yet cleared, by kind and phase",
+    async () =>
+      ((await dataSource.query("SELECT kind, phase, COUNT(*) AS n FROM alert WHERE phase <> 'cleared' GROUP BY kind, phase")) as { kind: string; phase: string; n: number }[]).map(
+        (r) => ({ labels: { kind: r.kind, phase: r.phase }, value: r.n }),
+      ),
+    ["kind", "phase"],
+  );
+  metrics.addGauge("benchwarden_sensors_silent", "Sensors with an open sensor-silent alert", async () =>
+    Number(((await dataSource.query("SELECT COUNT(*) AS n FROM alert WHERE kind = 'sensor-silent' AND phase <> 'cleared'")) as { n: number }[])[0]?.n ?? 0),
+  );
+  metrics.addGauge("benchwarden_outbox_waiting", "E-mails written but not yet accepted by the relay", async () =>
+    Number(((await dataSource.query("SELECT COUNT(*) AS n FROM outbox WHERE sent_at_ms IS NULL")) as { n: number }[])[0]?.n ?? 0),
+  );
 
   let broker: EmbeddedBroker | null = null;
   let http: Server | null = null;
@@ -325,6 +342,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       hub,
       metrics,
       logger,
+      isBrokerUp: () => broker?.isListening() ?? false,
       staticDir: options.staticDir ?? join(PROJECT_ROOT, "dist"),
     });
     http = createServer(app);
@@ -341,7 +359,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, stop };
+    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, stop };
   } catch (err) {
     await stop();
     throw err;

@@ -1,68 +1,87 @@
+import client from "prom-client";
+
 /**
- * A small Prometheus text-format registry (exposition format 0.0.4): counters with labels and
- * gauges read at scrape time. Enough for /metrics without another dependency.
+ * Operator metrics in the Prometheus text format, through prom-client. Each server instance has
+ * its own registry (tests run several in one process). Counters also keep their values for
+ * synchronous reads in tests and logs: prom-client's own `get()` is asynchronous.
  */
 type Labels = Record<string, string>;
 
-function labelText(labels: Labels): string {
-  const parts = Object.entries(labels).map(([k, v]) => `${k}="${v.replaceAll("\\", "\\\\").replaceAll('"', '\\"').replaceAll("\n", "\\n")}"`);
-  return parts.length ? `{${parts.join(",")}}` : "";
-}
-
 export class Counter {
   private readonly values = new Map<string, { labels: Labels; value: number }>();
+  private readonly counter: client.Counter<string>;
 
-  constructor(readonly name: string, readonly help: string) {}
+  constructor(registry: client.Registry, name: string, help: string, labelNames: string[] = []) {
+    this.counter = new client.Counter({ name, help, labelNames, registers: [registry] });
+  }
 
   inc(labels: Labels = {}, by = 1): void {
-    const key = labelText(labels);
+    if (by === 0) return;
+    this.counter.inc(labels, by);
+    const key = JSON.stringify(Object.entries(labels).sort());
     const entry = this.values.get(key) ?? { labels, value: 0 };
     entry.value += by;
     this.values.set(key, entry);
   }
 
   get(labels: Labels = {}): number {
-    return this.values.get(labelText(labels))?.value ?? 0;
+    return this.values.get(JSON.stringify(Object.entries(labels).sort()))?.value ?? 0;
   }
 
   entries(): { labels: Labels; value: number }[] {
     return [...this.values.values()];
   }
-
-  render(): string {
-    const lines = [`# HELP ${this.name} ${this.help}`, `# TYPE ${this.name} counter`];
-    if (this.values.size === 0) lines.push(`${this.name} 0`);
-    for (const { labels, value } of this.values.values()) lines.push(`${this.name}${labelText(labels)} ${value}`);
-    return lines.join("\n");
-  }
-}
-
-export class Gauge {
-  constructor(readonly name: string, readonly help: string, private readonly read: () => number) {}
-
-  render(): string {
-    return [`# HELP ${this.name} ${this.help}`, `# TYPE ${this.name} gauge`, `${this.name} ${this.read()}`].join("\n");
-  }
 }
 
 export class Metrics {
-  readonly readingsStored = new Counter("benchwarden_readings_stored_total", "Readings committed to the database");
-  readonly readingsDuplicate = new Counter("benchwarden_readings_duplicate_total", "Re-sent readings already stored (skipped)");
-  readonly readingsRejected = new Counter("benchwarden_readings_rejected_total", "Readings or packs refused at ingest, by reason");
-  readonly mqttMessages = new Counter("benchwarden_mqtt_messages_total", "MQTT reading messages received");
-  readonly writeBatches = new Counter("benchwarden_write_batches_total", "Ingest write transactions committed");
-  readonly mailSent = new Counter("benchwarden_mail_sent_total", "E-mails accepted by the mail relay");
-  readonly mailFailed = new Counter("benchwarden_mail_failed_attempts_total", "E-mail attempts that failed (retried later)");
-  readonly alertTransitions = new Counter("benchwarden_alert_transitions_total", "Alert life-cycle steps, by kind and step");
-  readonly mqttRefused = new Counter("benchwarden_mqtt_refused_total", "MQTT connections, publishes and subscriptions refused, by reason");
-  private readonly gauges: Gauge[] = [];
+  readonly registry = new client.Registry();
+  readonly readingsStored = new Counter(this.registry, "benchwarden_readings_stored_total", "Readings committed to the database");
+  readonly readingsDuplicate = new Counter(this.registry, "benchwarden_readings_duplicate_total", "Re-sent readings already stored (skipped)");
+  readonly readingsRejected = new Counter(this.registry, "benchwarden_readings_rejected_total", "Readings or packs refused at ingest, by reason", ["reason"]);
+  readonly mqttMessages = new Counter(this.registry, "benchwarden_mqtt_messages_total", "MQTT reading messages received");
+  readonly writeBatches = new Counter(this.registry, "benchwarden_write_batches_total", "Ingest write transactions committed");
+  readonly mqttRefused = new Counter(this.registry, "benchwarden_mqtt_refused_total", "MQTT connections, publishes and subscriptions refused or slowed, by reason", ["reason"]);
+  readonly mailSent = new Counter(this.registry, "benchwarden_mail_sent_total", "E-mails accepted by the mail relay");
+  readonly mailFailed = new Counter(this.registry, "benchwarden_mail_failed_attempts_total", "E-mail attempts that failed (retried later)");
+  readonly alertTransitions = new Counter(this.registry, "benchwarden_alert_transitions_total", "Alert life-cycle steps, by kind and step", ["kind", "step"]);
+  readonly batchRows = new client.Histogram({
+    name: "benchwarden_ingest_batch_rows",
+    help: "Readings per ingest transaction",
+    buckets: [1, 5, 20, 100, 500, 1000, 5000],
+    registers: [this.registry],
+  });
+  readonly batchCommitSeconds = new client.Histogram({
+    name: "benchwarden_ingest_commit_seconds",
+    help: "Time to write and commit one ingest transaction",
+    buckets: [0.0005, 0.001, 0.005, 0.01, 0.05, 0.1, 0.5, 1],
+    registers: [this.registry],
+  });
 
-  addGauge(name: string, help: string, read: () => number): void {
-    this.gauges.push(new Gauge(name, help, read));
+  constructor() {
+    client.collectDefaultMetrics({ register: this.registry, prefix: "benchwarden_" });
   }
 
-  render(): string {
-    const counters = [this.readingsStored, this.readingsDuplicate, this.readingsRejected, this.mqttMessages, this.writeBatches, this.mqttRefused, this.mailSent, this.mailFailed, this.alertTransitions];
-    return [...counters.map((c) => c.render()), ...this.gauges.map((g) => g.render())].join("\n") + "\n";
+  /** A gauge read at scrape time (sync or async), optionally by label. */
+  addGauge(name: string, help: string, read: () => number | Promise<number> | Promise<{ labels: Labels; value: number }[]>, labelNames: string[] = []): void {
+    new client.Gauge({
+      name,
+      help,
+      labelNames,
+      registers: [this.registry],
+      async collect() {
+        const value = await read();
+        this.reset();
+        if (typeof value === "number") this.set(value);
+        else for (const v of value) this.set(v.labels, v.value);
+      },
+    });
+  }
+
+  render(): Promise<string> {
+    return this.registry.metrics();
+  }
+
+  get contentType(): string {
+    return this.registry.contentType;
   }
 }

@@ -16,6 +16,7 @@ export const MQTT_LIMITS = { maxPacketBytes: 64 * 1024, bytesPerSecond: 64 * 102
 
 export interface EmbeddedBroker {
   port: number;
+  isListening(): boolean;
   /** Drop a sensor's connection (its secret was rotated or it was disabled). */
   disconnectSensor(sensorId: string): void;
   close(): Promise<void>;
@@ -127,17 +128,19 @@ export async function startBroker(host: string, port: number, deps: BrokerDeps):
     server.listen(port, host, () => resolve());
   });
   const boundPort = (server.address() as AddressInfo).port;
+  let closing: Promise<void> | null = null;
   logger.info({ port: boundPort }, "MQTT broker listening");
 
   return {
     port: boundPort,
+    isListening: () => server.listening && !broker.closed,
     disconnectSensor: (sensorId) => {
       for (const client of clientsOf.get(sensorId) ?? []) client.close();
       clientsOf.delete(sensorId);
     },
     close: () =>
-      new Promise<void>((resolve) => {
+      (closing ??= new Promise<void>((resolve) => {
         broker.close(() => server.close(() => resolve()));
-      }),
+      })),
   };
 }

@@ -82,10 +82,23 @@ describe("HTTP API", () => {
   });
 
   it("serves /healthz and Prometheus /metrics", async () => {
-    await request(server.baseUrl).get("/healthz").expect(200, { status: "ok" });
+    await request(server.baseUrl).get("/healthz").expect(200, { status: "ok", database: "ok", broker: "ok" });
     const res = await request(server.baseUrl).get("/metrics").expect(200);
     expect(res.headers["content-type"]).toMatch(/^text\/plain; version=0\.0\.4/);
-    expect(res.text).toContain("# TYPE benchwarden_readings_stored_total counter");
+    for (const name of ["benchwarden_readings_stored_total counter", "benchwarden_readings_rejected_total counter", "benchwarden_ingest_commit_seconds histogram", "benchwarden_alerts gauge", "benchwarden_outbox_waiting gauge", "benchwarden_sensors_silent gauge", "benchwarden_process_resident_memory_bytes gauge"]) {
+      expect(res.text).toContain(`# TYPE ${name}`);
+    }
+  });
+
+  it("/healthz fails when the broker is down", async () => {
+    const other = await startTestServer();
+    try {
+      await other.mqtt.close();
+      const res = await request(other.baseUrl).get("/healthz").expect(503);
+      expect(res.body).toEqual({ status: "unavailable", database: "ok", broker: "not listening" });
+    } finally {
+      await other.cleanup();
+    }
   });
 
   it("streams committed readings as server-sent events", async () => {

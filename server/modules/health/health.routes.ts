@@ -4,18 +4,22 @@ import type { RouteTable } from "../../lib/auth.js";
 import type { Metrics } from "../../lib/metrics.js";
 
 /** For operators and their monitoring: open, like any scrape target on the nursery's own network. */
-export function healthRoutes(table: RouteTable, dataSource: DataSource, metrics: Metrics): Router {
+export function healthRoutes(table: RouteTable, dataSource: DataSource, metrics: Metrics, isBrokerUp: () => boolean): Router {
   const r = table.router("", Router());
+  // Fails (503) when the database or the broker is down, so a supervisor can restart us.
   r.get("/healthz", "public", async (_req, res) => {
+    let database = "ok";
     try {
       await dataSource.query("SELECT 1");
-      res.json({ status: "ok" });
     } catch {
-      res.status(503).json({ status: "unavailable", detail: "database not answering" });
+      database = "not answering";
     }
+    const broker = isBrokerUp() ? "ok" : "not listening";
+    const ok = database === "ok" && broker === "ok";
+    res.status(ok ? 200 : 503).json({ status: ok ? "ok" : "unavailable", database, broker });
   });
-  r.get("/metrics", "public", (_req, res) => {
-    res.type("text/plain; version=0.0.4; charset=utf-8").send(metrics.render());
+  r.get("/metrics", "public", async (_req, res) => {
+    res.type(metrics.contentType).send(await metrics.render());
   });
   return r.router;
 }

@@ -66,8 +66,11 @@ export class ReadingWriter {
     this.queuedRows = 0;
     const rows = batch.flatMap((p) => p.rows);
     let stored: ReadingRow[];
+    const startedNs = process.hrtime.bigint();
     try {
       stored = this.repository.insertReadings(rows);
+      this.metrics.batchCommitSeconds.observe(Number(process.hrtime.bigint() - startedNs) / 1e9);
+      this.metrics.batchRows.observe(rows.length);
     } catch (err) {
       this.logger.error({ err, rows: rows.length }, "reading batch failed to commit; sensors will re-send");
       for (const p of batch) p.reject(err);
