@@ -1,9 +1,14 @@
 import { useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { useEffect, useMemo } from "react";
+import type { AlertView } from "../../shared/schemas/alerts.js";
 import type { ReadingsEvent } from "../../shared/schemas/stream.js";
-import { useReadingsStream, type StreamState } from "../features/live/hooks/use-readings-stream";
+import { ACKNOWLEDGE_ALERT_MUTATION_KEY, type acknowledgeAlert } from "../features/alerts/api/acknowledge-alert";
+import { ALERT_LISTS_KEY } from "../features/alerts/api/get-alerts";
+import { updateAlertQueries } from "../features/alerts/utils/update-alert-queries";
+import { useReadingsStream, type AlertsEvent, type StreamState } from "../features/live/hooks/use-readings-stream";
 import { getBenchReadingsQueryOptions } from "../features/readings/api/get-bench-readings";
 import { getZonesQueryOptions } from "../features/zones/api/get-zones";
+import { applyAlertsToZones } from "../features/zones/utils/apply-alerts";
 import { applyReadingsToZones } from "../features/zones/utils/apply-readings";
 
 /** The open bench's chart is refetched at most this often while readings stream in. */
@@ -11,6 +16,7 @@ export const SERIES_REFRESH_MS = 30_000;
 
 export type ReadingsHandler = {
   handleReadings: (event: ReadingsEvent) => void;
+  handleAlerts: (event: AlertsEvent) => void;
   handleReconnect: () => void;
   dispose: () => void;
 };
@@ -19,7 +25,8 @@ export type ReadingsHandler = {
  * What the live stream does to the cache (STYLE.md §4): each batch patches the zones list in
  * place (latest value, status, bench status), and the series of a bench whose page is open is
  * invalidated, throttled to once per `seriesRefreshMs` with a trailing refresh so the last
- * reading of a burst is not left out.
+ * reading of a burst is not left out. Each "alerts" event replaces, adds or removes those alerts
+ * in every cached alert list and detail and in the benches' open alerts of the zones list.
  */
 export function createReadingsHandler(
   queryClient: QueryClient,
@@ -63,10 +70,14 @@ export function createReadingsHandler(
       if (hasUnknownBench) void queryClient.invalidateQueries({ queryKey: zonesKey });
       for (const benchId of new Set(event.readings.map((r) => r.benchId))) refreshSeries(benchId);
     },
+    handleAlerts(event) {
+      applyAlertChanges(queryClient, event.alerts);
+    },
     handleReconnect() {
-      // Readings may have been missed while the stream was down.
+      // Readings and alert changes may have been missed while the stream was down.
       void queryClient.invalidateQueries({ queryKey: zonesKey });
       void queryClient.invalidateQueries({ queryKey: ["readings", "series"] });
+      void queryClient.invalidateQueries({ queryKey: ALERT_LISTS_KEY });
     },
     dispose() {
       for (const timer of pendingTimers.values()) clearTimeout(timer);
@@ -75,11 +86,41 @@ export function createReadingsHandler(
   };
 }
 
-/** Connects the readings stream to the query cache for as long as the app is mounted. */
+/** Changed alerts into the alert queries and onto the bench cards (the zones list). */
+export function applyAlertChanges(queryClient: QueryClient, alerts: readonly AlertView[]): void {
+  if (alerts.length === 0) return;
+  updateAlertQueries(queryClient, alerts);
+  const zonesKey = getZonesQueryOptions().queryKey;
+  let hasUnknownBench = false;
+  queryClient.setQueryData(zonesKey, (current) => {
+    if (!current) return current;
+    const result = applyAlertsToZones(current, alerts);
+    hasUnknownBench = result.unknownBenchIds.length > 0;
+    return result.zones;
+  });
+  if (hasUnknownBench) void queryClient.invalidateQueries({ queryKey: zonesKey });
+}
+
+/**
+ * Our own acknowledgement's answer goes onto the bench cards at once, without waiting for the
+ * stream's copy (which may be down). Returns the unsubscribe function.
+ */
+function followAcknowledgements(queryClient: QueryClient): () => void {
+  return queryClient.getMutationCache().subscribe((event) => {
+    if (event.type !== "updated" || event.action.type !== "success") return;
+    const key = event.mutation.options.mutationKey;
+    if (key?.[0] !== ACKNOWLEDGE_ALERT_MUTATION_KEY[0] || key[1] !== ACKNOWLEDGE_ALERT_MUTATION_KEY[1]) return;
+    const answer = event.action.data as Awaited<ReturnType<typeof acknowledgeAlert>>;
+    applyAlertChanges(queryClient, [answer.alert]);
+  });
+}
+
+/** Connects the live stream to the query cache for as long as the app is mounted. */
 export function useLiveUpdates(): StreamState {
   const queryClient = useQueryClient();
   // dispose() only drops pending timers, so the handler stays usable after a StrictMode re-mount.
   const handler = useMemo(() => createReadingsHandler(queryClient), [queryClient]);
   useEffect(() => () => handler.dispose(), [handler]);
-  return useReadingsStream({ onReadings: handler.handleReadings, onReconnect: handler.handleReconnect });
+  useEffect(() => followAcknowledgements(queryClient), [queryClient]);
+  return useReadingsStream({ onReadings: handler.handleReadings, onAlerts: handler.handleAlerts, onReconnect: handler.handleReconnect });
 }

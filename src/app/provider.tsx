@@ -3,6 +3,7 @@ import { Component, type ReactNode } from "react";
 import { ErrorMessage } from "../components/errors/error-message";
 import { ToastProvider } from "../components/ui/toast";
 import { TemperatureUnitProvider } from "../lib/temperature-unit";
+import { OfflineWork } from "./offline-work";
 
 type AppProviderProps = { queryClient: QueryClient; children: ReactNode };
 
@@ -16,7 +17,10 @@ export function AppProvider({ queryClient, children }: AppProviderProps) {
     <TopErrorBoundary>
       <QueryClientProvider client={queryClient}>
         <TemperatureUnitProvider>
-          <ToastProvider>{children}</ToastProvider>
+          <ToastProvider>
+            {/* Observations and check-offs entered offline wait on the tablet (app/offline-work.tsx). */}
+            <OfflineWork queryClient={queryClient}>{children}</OfflineWork>
+          </ToastProvider>
         </TemperatureUnitProvider>
       </QueryClientProvider>
     </TopErrorBoundary>

@@ -46,6 +46,12 @@ export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
       HydrateFallback: PublicFallback,
       lazy: () => import("./routes/auth/set-password").then(publicPage),
     },
+    // Alert e-mails' acknowledge links: the signed token is the proof, no session needed.
+    {
+      path: paths.ack.pattern,
+      HydrateFallback: PublicFallback,
+      lazy: () => import("./routes/ack/ack").then(publicPage),
+    },
     // Everything else needs a session, restored from the cookie by the layout's loader.
     {
       path: "/",
@@ -62,6 +68,42 @@ export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
         {
           path: paths.bench.pattern,
           lazy: () => import("./routes/benches/bench").then(signedInPage),
+        },
+        {
+          path: paths.zoneHistory.pattern,
+          lazy: () => import("./routes/history/zone").then(signedInPage),
+        },
+        {
+          path: paths.settings.pattern,
+          lazy: () => import("./routes/settings/settings").then(signedInPage),
+        },
+        {
+          path: paths.settingsZone.pattern,
+          lazy: () => import("./routes/settings/zone").then(signedInPage),
+        },
+        {
+          path: paths.settingsBench.pattern,
+          lazy: () => import("./routes/settings/bench").then(signedInPage),
+        },
+        {
+          path: paths.windowPresets.pattern,
+          lazy: () => import("./routes/settings/presets").then(signedInPage),
+        },
+        {
+          path: paths.audit.pattern,
+          lazy: () => import("./routes/settings/changes").then(signedInPage),
+        },
+        {
+          path: paths.alerts.pattern,
+          lazy: () => import("./routes/alerts/alerts").then(signedInPage),
+        },
+        {
+          path: paths.alert.pattern,
+          lazy: () => import("./routes/alerts/alert").then(signedInPage),
+        },
+        {
+          path: paths.dutyRota.pattern,
+          lazy: () => import("./routes/rota/duty-rota").then(signedInPage),
         },
         {
           path: paths.users.pattern,

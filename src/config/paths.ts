@@ -8,6 +8,32 @@ export const paths = {
     pattern: "/benches/:benchId",
     to: (benchId: number) => `/benches/${benchId}`,
   },
+  /** A zone's history: its benches' mean lines (`?range=7d|30d` or `?from=…&to=…` days, like the bench page). */
+  zoneHistory: {
+    pattern: "/zones/:zoneId",
+    to: (zoneId: number) => `/zones/${zoneId}`,
+  },
+  /** Settings: sites, zones and benches; windows, presets and the change log (read only below manager). */
+  settings: {
+    pattern: "/settings",
+    to: () => "/settings",
+  },
+  settingsZone: {
+    pattern: "/settings/zones/:zoneId",
+    to: (zoneId: number) => `/settings/zones/${zoneId}`,
+  },
+  settingsBench: {
+    pattern: "/settings/benches/:benchId",
+    to: (benchId: number) => `/settings/benches/${benchId}`,
+  },
+  windowPresets: {
+    pattern: "/settings/presets",
+    to: () => "/settings/presets",
+  },
+  audit: {
+    pattern: "/settings/changes",
+    to: () => "/settings/changes",
+  },
   signIn: {
     pattern: "/sign-in",
     /** `next`: where to go after signing in (a path on this site); `email`: prefilled address. */
@@ -38,6 +64,31 @@ export const paths = {
   mailbox: {
     pattern: "/mailbox",
     to: (messageId?: number) => (messageId === undefined ? "/mailbox" : `/mailbox?message=${messageId}`),
+  },
+  /** `tab`: open (default) or past; the filters are a zone id, a life-cycle phase and a kind. */
+  alerts: {
+    pattern: "/alerts",
+    to: ({ tab, zoneId, phase, kind }: { tab?: "open" | "past"; zoneId?: number; phase?: string; kind?: string } = {}) => {
+      const search = new URLSearchParams();
+      if (tab && tab !== "open") search.set("tab", tab);
+      if (zoneId !== undefined) search.set("zone", String(zoneId));
+      if (phase) search.set("phase", phase);
+      if (kind) search.set("kind", kind);
+      return search.size > 0 ? `/alerts?${search}` : "/alerts";
+    },
+  },
+  alert: {
+    pattern: "/alerts/:alertId",
+    to: (alertId: number) => `/alerts/${alertId}`,
+  },
+  /** The page alert e-mails' acknowledge links open (server/alerts/notifier.ts); works signed out. */
+  ack: {
+    pattern: "/ack",
+    to: (token: string) => `/ack?token=${encodeURIComponent(token)}`,
+  },
+  dutyRota: {
+    pattern: "/duty-rota",
+    to: () => "/duty-rota",
   },
 } as const;
 

@@ -94,13 +94,13 @@ export async function apiGet<S extends z.ZodType>(
 type SendOptions = { body?: unknown; signal?: AbortSignal };
 
 /**
- * POST/PATCH/DELETE with a JSON body. With a schema the answer is validated and returned; without
+ * POST/PUT/PATCH/DELETE with a JSON body. With a schema the answer is validated and returned; without
  * one (204, 202) the body is ignored. Throws ApiError.
  */
-export async function apiSend<S extends z.ZodType>(method: "POST" | "PATCH" | "DELETE", path: string, schema: S, options?: SendOptions): Promise<z.output<S>>;
-export async function apiSend(method: "POST" | "PATCH" | "DELETE", path: string, schema?: undefined, options?: SendOptions): Promise<void>;
+export async function apiSend<S extends z.ZodType>(method: "POST" | "PUT" | "PATCH" | "DELETE", path: string, schema: S, options?: SendOptions): Promise<z.output<S>>;
+export async function apiSend(method: "POST" | "PUT" | "PATCH" | "DELETE", path: string, schema?: undefined, options?: SendOptions): Promise<void>;
 export async function apiSend<S extends z.ZodType>(
-  method: "POST" | "PATCH" | "DELETE",
+  method: "POST" | "PUT" | "PATCH" | "DELETE",
   path: string,
   schema?: S,
   { body, signal }: SendOptions = {},

@@ -1,30 +1,24 @@
+import { OUT_OF_WINDOW_WORDS, QUANTITY_LABELS, describeAlert } from "../../shared/domain/quantity-words.js";
 import type { Quantity, WindowedQuantity } from "../../shared/schemas/quantities.js";
 import type { WindowStatus } from "../../shared/schemas/windows.js";
 
-/** What a grower calls each quantity, in the order cards and charts show them. */
-export const QUANTITY_LABELS: Record<WindowedQuantity, string> = {
-  "air.temperature": "Air temperature",
-  "air.humidity": "Air humidity",
-  "medium.temperature": "Medium temperature",
-  "medium.moisture": "Medium moisture",
-};
+/*
+ * The words for quantities and their statuses. The full names and the out-of-window words come
+ * from shared/domain/quantity-words.ts, which the e-mails use too, so a screen and a mail never
+ * call the same thing by two names. Only what is screen-specific (short tile names, the in-window
+ * and no-reading words) is defined here.
+ */
+export { OUT_OF_WINDOW_WORDS, QUANTITY_LABELS, describeAlert };
 
 /** Shorter names for the dashboard's tiles, where the full name would wrap. */
 export const QUANTITY_SHORT_LABELS: Record<WindowedQuantity, string> = {
   "air.temperature": "Air temp",
-  "air.humidity": "Air humidity",
+  "air.humidity": QUANTITY_LABELS["air.humidity"],
   "medium.temperature": "Medium temp",
-  "medium.moisture": "Medium moisture",
+  "medium.moisture": QUANTITY_LABELS["medium.moisture"],
 };
 
 type OutOfWindow = Exclude<WindowStatus, "inside" | "unknown">;
-
-const OUT_OF_WINDOW_WORDS: Record<WindowedQuantity, Record<OutOfWindow, string>> = {
-  "air.temperature": { below: "Too cold", above: "Too warm" },
-  "air.humidity": { below: "Too dry", above: "Too humid" },
-  "medium.temperature": { below: "Medium too cold", above: "Medium too warm" },
-  "medium.moisture": { below: "Medium too dry", above: "Medium too wet" },
-};
 
 export const IN_WINDOW_WORDS = "In window";
 export const NO_READING_WORDS = "No reading";

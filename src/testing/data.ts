@@ -1,4 +1,5 @@
 // Test data builders for component tests only; nothing in the app imports this file.
+import type { AlertView } from "../../shared/schemas/alerts.js";
 import type { Role, SessionResponse, User } from "../../shared/schemas/auth.js";
 import type { SensorView } from "../../shared/schemas/sensors.js";
 import type { QuantityWindow } from "../../shared/schemas/windows.js";
@@ -83,6 +84,36 @@ export function makeSensor(overrides: Partial<SensorView> = {}): SensorView {
     createdAtMs: NOW_MS - 86_400_000,
     lastSeenMs: Date.now() - 60_000,
     batteryPct: 87,
+    ...overrides,
+  };
+}
+
+/** An alert like the engine's: bench 1 of the fig house, air too cold, raised 10 min after it began. */
+export function makeAlert(overrides: Partial<AlertView> = {}): AlertView {
+  return {
+    id: 1,
+    kind: "window",
+    phase: "raised",
+    benchId: 1,
+    benchName: "Bench 1",
+    zoneId: 1,
+    zoneName: "Fig house",
+    siteName: "Hillside nursery",
+    quantity: "air.temperature",
+    direction: "below",
+    sensorId: null,
+    lastValue: 15,
+    worstValue: 14.5,
+    windowMin: 21,
+    windowMax: 27,
+    sinceMs: NOW_MS - 40 * 60_000,
+    raisedAtMs: NOW_MS - 30 * 60_000,
+    acknowledgedAtMs: null,
+    acknowledgedByName: null,
+    acknowledgeNote: null,
+    clearedAtMs: null,
+    escalatedAtMs: null,
+    summary: "Air too cold",
     ...overrides,
   };
 }

@@ -28,7 +28,8 @@ describe("role-aware navigation and pages", () => {
     async () => {
       renderApp("/", apiFor("viewer"));
       expect(await screen.findByRole("heading", { name: "Fig house" }, FIRST_PAINT)).toBeTruthy();
-      expect(screen.queryByRole("navigation", { name: "Pages" })).toBeNull();
+      const nav = screen.getByRole("navigation", { name: "Pages" });
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings"]);
       for (const name of ["Users", "Sensors", "Mailbox"]) expect(screen.queryByRole("link", { name })).toBeNull();
       // The only button is the viewer's own account menu.
       expect(screen.getAllByRole("button").map((b) => b.textContent)).toEqual([expect.stringContaining("Vi Viewer")]);
@@ -60,12 +61,12 @@ describe("role-aware navigation and pages", () => {
   }
 
   it(
-    "an admin gets the links to Users, Sensors and Mailbox, and the sensors page has its controls",
+    "an admin gets the links to Users, Sensors and Mailbox (demo), and the sensors page has its controls",
     async () => {
       renderApp("/sensors", apiFor("admin"));
       expect(await screen.findByRole("heading", { level: 1, name: "Sensors" }, FIRST_PAINT)).toBeTruthy();
       const nav = screen.getByRole("navigation", { name: "Pages" });
-      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Users", "Sensors", "Mailbox"]);
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings", "Users", "Sensors", "Mailbox"]);
       expect(within(nav).getByRole("link", { name: "Sensors" }).getAttribute("aria-current")).toBe("page");
       expect(screen.getByRole("button", { name: /Register and make its secret/ })).toBeTruthy();
       expect(screen.getByRole("button", { name: "New secret for probe-1" })).toBeTruthy();

@@ -57,6 +57,25 @@ export function TextField({ label, hint, error, className, ...props }: TextField
   );
 }
 
+type TextAreaFieldProps = Omit<ComponentProps<"textarea">, "id"> & { label: string; hint?: ReactNode; error?: string; className?: string };
+
+/** A few lines of free text (a note). */
+export function TextAreaField({ label, hint, error, className, rows = 3, ...props }: TextAreaFieldProps) {
+  const id = useId();
+  return (
+    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
+      <textarea
+        {...props}
+        id={id}
+        rows={rows}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, hint, error)}
+        className={CONTROL}
+      />
+    </FieldFrame>
+  );
+}
+
 /** A password input with a show/hide toggle (typing on a tablet with wet hands is error-prone). */
 export function PasswordField({ label, hint, error, className, ...props }: Omit<TextFieldProps, "type">) {
   const id = useId();

@@ -118,7 +118,9 @@ describe("users page", () => {
       fireEvent.click(within(screen.getByRole("dialog")).getByRole("button", { name: "Change my role" }));
 
       expect(await screen.findByText("You are no longer an admin")).toBeTruthy();
-      expect(screen.queryByRole("navigation", { name: "Pages" })).toBeNull();
+      // Every role keeps Benches, Alerts, Duty rota and Settings; the admin pages' links are gone.
+      const nav = screen.getByRole("navigation", { name: "Pages" });
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings"]);
       expect(screen.queryAllByRole("combobox")).toHaveLength(0);
       expect(screen.queryAllByRole("button", { name: /Disable|Send invitation/ })).toHaveLength(0);
     },

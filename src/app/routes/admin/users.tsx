@@ -6,7 +6,7 @@ import { buttonClasses } from "../../../components/ui/button";
 import { LinkButton } from "../../../components/ui/link-button";
 import { Notice } from "../../../components/ui/notice";
 import { paths } from "../../../config/paths";
-import { getSessionQueryOptions } from "../../../features/auth/api/get-session";
+import { getSessionQueryOptions, useSession } from "../../../features/auth/api/get-session";
 import { getUsersQueryOptions } from "../../../features/users/api/get-users";
 import { InviteUserForm } from "../../../features/users/components/invite-user-form";
 import { UsersTable } from "../../../features/users/components/users-table";
@@ -43,6 +43,8 @@ export default function UsersRoute() {
 }
 
 function UsersPage({ onChangedSelf }: { onChangedSelf: () => void }) {
+  // The mailbox holds the invitation only in demo mode (the local sink); a real relay delivers it.
+  const { data: session } = useSession();
   return (
     <div className="flex flex-col gap-10">
       <title>Users · Benchwarden</title>
@@ -72,13 +74,15 @@ function UsersPage({ onChangedSelf }: { onChangedSelf: () => void }) {
         <p className="mb-4 text-lg text-muted">They get an e-mail with a link to choose their password.</p>
         <InviteUserForm
           afterInvite={
-            <>
-              Running the demo? The e-mail is in the{" "}
-              <Link to={paths.mailbox.to()} className="font-semibold text-accent underline underline-offset-4">
-                Mailbox
-              </Link>
-              .
-            </>
+            session.demo ? (
+              <>
+                This is the demo: the e-mail is in the{" "}
+                <Link to={paths.mailbox.to()} className="font-semibold text-accent underline underline-offset-4">
+                  Mailbox
+                </Link>
+                .
+              </>
+            ) : undefined
           }
         />
       </section>

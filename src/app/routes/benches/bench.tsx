@@ -1,15 +1,19 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { data, useParams, type LoaderFunction, type Params } from "react-router-dom";
+import { data, useNavigate, useParams, useSearchParams, type LoaderFunction, type Params } from "react-router-dom";
 import { PanelBoundary } from "../../../components/errors/panel-boundary";
 import { RouteError } from "../../../components/errors/route-error";
 import { LinkButton } from "../../../components/ui/link-button";
 import { paths } from "../../../config/paths";
+import { ExportCsvButton } from "../../../features/exports/components/export-csv-button";
 import { getBenchReadingsQueryOptions, useBenchReadings } from "../../../features/readings/api/get-bench-readings";
 import { BenchCharts } from "../../../features/readings/components/bench-charts";
+import { RangePicker } from "../../../features/readings/components/range-picker";
+import { rangeBounds, rangeFromSearch, rangeToSearch, type ChartRange } from "../../../features/readings/utils/chart-range";
 import { getZonesQueryOptions } from "../../../features/zones/api/get-zones";
 import { BenchLatest } from "../../../features/zones/components/bench-latest";
 import { useNow } from "../../../hooks/use-now";
 import { useTemperatureUnit } from "../../../lib/temperature-unit";
+import { BenchOpenAlerts } from "../alerts/bench-open-alerts";
 
 function parseBenchId(params: Params): number {
   const benchId = Number(params.benchId);
@@ -21,21 +25,29 @@ function parseBenchId(params: Params): number {
 
 export const clientLoader =
   (queryClient: QueryClient): LoaderFunction =>
-  async ({ params }) => {
+  async ({ params, request }) => {
     const benchId = parseBenchId(params);
+    const range = rangeFromSearch(new URL(request.url).searchParams);
     await Promise.all([
-      queryClient.ensureQueryData(getBenchReadingsQueryOptions({ benchId })),
+      queryClient.ensureQueryData(getBenchReadingsQueryOptions({ benchId, range })),
       queryClient.ensureQueryData(getZonesQueryOptions()),
     ]);
     return null;
   };
 
-/** `/benches/:benchId`: the bench's latest values and its last 24 h per quantity. */
+/**
+ * `/benches/:benchId`: the bench's latest values and its history per quantity, the last 24 h by
+ * default; `?range=7d|30d` or `?from=YYYY-MM-DD&to=YYYY-MM-DD` for longer, with a CSV export.
+ */
 export default function BenchRoute() {
   const benchId = parseBenchId(useParams());
-  const { data: readings } = useBenchReadings({ benchId });
+  const [search] = useSearchParams();
+  const navigate = useNavigate();
+  const range = rangeFromSearch(search);
+  const { data: readings } = useBenchReadings({ benchId, range });
   const { unit } = useTemperatureUnit();
   const nowMs = useNow();
+  const setRange = (next: ChartRange) => void navigate({ search: rangeToSearch(next) }, { replace: true });
 
   return (
     <>
@@ -44,16 +56,37 @@ export default function BenchRoute() {
         <LinkButton to={paths.dashboard.to()}>
           <span aria-hidden="true">←</span> All benches
         </LinkButton>
-        <div>
+        <div className="flex-1">
           <h1 className="text-3xl font-bold leading-tight">{readings.bench.name}</h1>
           <p className="text-lg text-muted">{readings.bench.zoneName}</p>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <LinkButton to={paths.zoneHistory.to(readings.bench.zoneId)}>Zone history</LinkButton>
+          <LinkButton to={paths.settingsBench.to(benchId)}>Windows</LinkButton>
         </div>
       </div>
       <div className="flex flex-col gap-8">
         <PanelBoundary>
           <BenchLatest benchId={benchId} unit={unit} nowMs={nowMs} />
         </PanelBoundary>
-        <BenchCharts readings={readings} unit={unit} />
+        <PanelBoundary>
+          <BenchOpenAlerts benchId={benchId} nowMs={nowMs} />
+        </PanelBoundary>
+        <BenchCharts
+          readings={readings}
+          unit={unit}
+          range={range}
+          controls={
+            <div className="flex flex-wrap items-start gap-3">
+              <RangePicker key={rangeToSearch(range)} range={range} onChange={setRange} />
+              <ExportCsvButton
+                target={{ benchId }}
+                label={`${readings.bench.zoneName} › ${readings.bench.name}`}
+                defaultRange={() => rangeBounds(range, Date.now())}
+              />
+            </div>
+          }
+        />
       </div>
     </>
   );

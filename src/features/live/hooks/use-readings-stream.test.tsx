@@ -1,10 +1,11 @@
 import { act, render, screen } from "@testing-library/react";
 import { beforeEach, describe, expect, it, vi } from "vitest";
+import { makeAlert } from "../../../testing/data";
 import { FakeEventSource } from "../../../testing/fakes";
 import { LiveIndicator } from "../components/live-indicator";
 import { useReadingsStream } from "./use-readings-stream";
 
-function StreamProbe(props: { onReadings: () => void; onReconnect: () => void }) {
+function StreamProbe(props: { onReadings: () => void; onReconnect: () => void; onAlerts?: () => void }) {
   const state = useReadingsStream(props);
   return <LiveIndicator state={state} />;
 }
@@ -55,6 +56,19 @@ describe("useReadingsStream", () => {
     act(() => FakeEventSource.latest().open());
     expect(screen.getByRole("status").textContent).toBe("Live");
     expect(onReconnect).toHaveBeenCalledTimes(1);
+  });
+
+  it("passes each valid alerts event on and drops a malformed one", () => {
+    const onAlerts = vi.fn();
+    render(<StreamProbe onReadings={vi.fn()} onReconnect={vi.fn()} onAlerts={onAlerts} />);
+    const source = FakeEventSource.latest();
+    act(() => source.open());
+    const event = { alerts: [makeAlert({ phase: "acknowledged", acknowledgedByName: "Marisol" })] };
+    act(() => source.emit("alerts", event));
+    expect(onAlerts).toHaveBeenCalledWith(event);
+    vi.spyOn(console, "warn").mockImplementation(() => {});
+    act(() => source.emit("alerts", { alerts: [{ id: "x" }] }));
+    expect(onAlerts).toHaveBeenCalledTimes(1);
   });
 
   it("closes the stream when unmounted", () => {

@@ -1,5 +1,9 @@
 import { useEffect, useRef, useState } from "react";
+import type { z } from "zod";
+import { alertsEventSchema } from "../../../../shared/schemas/alerts.js";
 import { readingsEventSchema, type ReadingsEvent } from "../../../../shared/schemas/stream.js";
+
+export type AlertsEvent = z.infer<typeof alertsEventSchema>;
 
 export const STREAM_URL = "/api/stream";
 
@@ -8,6 +12,8 @@ export type StreamState = "connecting" | "live" | "reconnecting";
 
 type StreamHandlers = {
   onReadings: (event: ReadingsEvent) => void;
+  /** Event "alerts": alerts that changed (alertsEventSchema). */
+  onAlerts?: (event: AlertsEvent) => void;
   /** Called when the stream opens again after a drop: whatever was missed should be refetched. */
   onReconnect?: () => void;
 };
@@ -17,8 +23,26 @@ const RETRY_MAX_MS = 30_000;
 // EventSource.CLOSED; spelled out so a test double need not copy the static constants.
 const CLOSED = 2;
 
+// Every event is JSON checked against its shared schema; anything else is dropped, not thrown.
+function parse<S extends z.ZodType>(type: string, schema: S, event: MessageEvent<string>): z.output<S> | undefined {
+  let json: unknown;
+  try {
+    json = JSON.parse(event.data);
+  } catch {
+    console.warn(`${type} stream: an event was not JSON`, event.data);
+    return undefined;
+  }
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    console.warn(`${type} stream: an event did not match the schema`, parsed.error.issues);
+    return undefined;
+  }
+  return parsed.data;
+}
+
 /**
- * Subscribes to the server-sent readings stream (event "readings", data per readingsEventSchema).
+ * Subscribes to the server-sent stream: event "readings" (readingsEventSchema) and event "alerts"
+ * (alertsEventSchema).
  * The browser's EventSource retries on its own after a network drop; when it gives up (an HTTP
  * error answer closes it for good) this hook opens a new one with exponential back-off.
  */
@@ -45,19 +69,13 @@ export function useReadingsStream(handlers: StreamHandlers, url = STREAM_URL): S
     };
 
     const onReadings = (event: MessageEvent<string>) => {
-      let json: unknown;
-      try {
-        json = JSON.parse(event.data);
-      } catch {
-        console.warn("readings stream: an event was not JSON", event.data);
-        return;
-      }
-      const parsed = readingsEventSchema.safeParse(json);
-      if (!parsed.success) {
-        console.warn("readings stream: an event did not match the schema", parsed.error.issues);
-        return;
-      }
-      handlersRef.current.onReadings(parsed.data);
+      const data = parse("readings", readingsEventSchema, event);
+      if (data) handlersRef.current.onReadings(data);
+    };
+
+    const onAlerts = (event: MessageEvent<string>) => {
+      const data = parse("alerts", alertsEventSchema, event);
+      if (data) handlersRef.current.onAlerts?.(data);
     };
 
     const onError = () => {
@@ -77,6 +95,7 @@ export function useReadingsStream(handlers: StreamHandlers, url = STREAM_URL): S
       source = new EventSource(url);
       source.addEventListener("open", onOpen);
       source.addEventListener("readings", onReadings as EventListener);
+      source.addEventListener("alerts", onAlerts as EventListener);
       source.addEventListener("error", onError);
     }
 

@@ -1,52 +1,104 @@
-import type { TemperatureUnit } from "../../../../shared/domain/units.js";
+import { useState, type ReactNode } from "react";
+import { displayUnit, toDisplayValue, type TemperatureUnit } from "../../../../shared/domain/units.js";
 import { WINDOWED_QUANTITIES, type WindowedQuantity } from "../../../../shared/schemas/quantities.js";
 import type { BenchReadingsResponse } from "../../../../shared/schemas/readings.js";
 import { PanelBoundary } from "../../../components/errors/panel-boundary";
 import { formatValueParts, formatWindowRange } from "../../../lib/display-value";
 import { formatDuration } from "../../../lib/format-time";
 import { QUANTITY_LABELS } from "../../../lib/quantity-labels";
-import { summarizeSeries } from "../utils/chart-points";
-import { ReadingChart } from "./reading-chart";
+import { derivedPoints, niceAxis, outOfWindowStretches, summarizeSeries, toChartPoints, type DerivedPoint } from "../utils/chart-points";
+import { DEFAULT_RANGE, describeRange, describeRangeInSentence, type ChartRange } from "../utils/chart-range";
+import { DerivedToggles, type DerivedChoice } from "./derived-toggles";
+import { MultiLineChart } from "./multi-line-chart";
+import { ReadingChart, type ExtraLine } from "./reading-chart";
 
-type BenchChartsProps = { readings: BenchReadingsResponse; unit: TemperatureUnit };
+type BenchChartsProps = {
+  readings: BenchReadingsResponse;
+  unit: TemperatureUnit;
+  range?: ChartRange;
+  /** Shown beside the heading: the range picker, the export button. */
+  controls?: ReactNode;
+};
 
-/** The bench page's charts: one per windowed quantity over the response's range (the last 24 h). */
-export function BenchCharts({ readings, unit }: BenchChartsProps) {
+/**
+ * The bench's charts over the chosen range: one per windowed quantity, and on request the dew
+ * point (on the air chart) and the VPD (a chart of its own), both worked out from the air
+ * temperature and humidity series with shared/domain/psychrometrics.ts.
+ */
+export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls }: BenchChartsProps) {
+  const [derived, setDerived] = useState<DerivedChoice>({ dewPoint: false, vpd: false });
+  const series = (q: WindowedQuantity) => readings.series.find((s) => s.quantity === q)?.points ?? [];
+  const derivedSeries = derived.dewPoint || derived.vpd ? derivedPoints(series("air.temperature"), series("air.humidity")) : [];
+
   return (
     <section aria-labelledby="charts-heading">
-      <div className="mb-3 flex flex-wrap items-baseline justify-between gap-2">
+      <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <h2 id="charts-heading" className="text-xl font-bold">
-          Last 24 hours
+          {describeRange(range)}
         </h2>
-        <ChartKey />
+        {controls}
+      </div>
+      <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
+        <DerivedToggles value={derived} onChange={setDerived} />
+        <ChartKey hasDewPoint={derived.dewPoint} />
       </div>
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
         {WINDOWED_QUANTITIES.map((quantity) => (
           <PanelBoundary key={quantity}>
-            <QuantityChartPanel quantity={quantity} readings={readings} unit={unit} />
+            <QuantityChartPanel
+              quantity={quantity}
+              readings={readings}
+              unit={unit}
+              range={range}
+              extraLine={quantity === "air.temperature" && derived.dewPoint ? dewPointLine(derivedSeries, unit) : undefined}
+            />
           </PanelBoundary>
         ))}
+        {derived.vpd && (
+          <PanelBoundary>
+            <VpdPanel points={derivedSeries} readings={readings} range={range} />
+          </PanelBoundary>
+        )}
       </div>
+      {(derived.dewPoint || derived.vpd) && (
+        <p className="mt-3 text-base text-muted">
+          Dew point and VPD are worked out from each interval&apos;s mean air temperature and humidity (dew point by the Magnus form, VPD after FAO-56).
+        </p>
+      )}
     </section>
   );
+}
+
+function dewPointLine(points: readonly DerivedPoint[], unit: TemperatureUnit): ExtraLine {
+  const unitLabel = displayUnit("air.temperature", unit);
+  return {
+    label: "Dew point",
+    values: new Map(points.map((p) => [p.timeMs, toDisplayValue("air.temperature", p.dewPointC, unit)])),
+    format: (v) => `${v.toFixed(1)} ${unitLabel}`,
+  };
 }
 
 function QuantityChartPanel({
   quantity,
   readings,
   unit,
+  range,
+  extraLine,
 }: {
   quantity: WindowedQuantity;
   readings: BenchReadingsResponse;
   unit: TemperatureUnit;
+  range: ChartRange;
+  extraLine?: ExtraLine;
 }) {
   const points = readings.series.find((s) => s.quantity === quantity)?.points ?? [];
   const window = readings.windows.find((w) => w.quantity === quantity);
   const summary = summarizeSeries(points, readings.bucketMs, window);
+  const stretchCount = window ? outOfWindowStretches(toChartPoints(points, quantity, unit, readings.bucketMs, window), readings.bucketMs).length : 0;
   const headingId = `chart-${quantity.replace(".", "-")}`;
 
   return (
-    <figure aria-labelledby={headingId} className="rounded-2xl border-2 border-line bg-surface p-3 sm:p-4">
+    <figure aria-labelledby={headingId} data-quantity={quantity} className="rounded-2xl border-2 border-line bg-surface p-3 sm:p-4">
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-x-3">
         <h3 id={headingId} className="text-lg font-bold">
           {QUANTITY_LABELS[quantity]}
@@ -54,7 +106,7 @@ function QuantityChartPanel({
         {window && <span className="text-base text-muted">Window {formatWindowRange(window, unit)}</span>}
       </div>
       {points.length === 0 ? (
-        <p className="flex h-40 items-center justify-center text-lg text-muted">No readings in the last 24 hours</p>
+        <p className="flex h-40 items-center justify-center text-lg text-muted">No readings {describeRangeInSentence(range)}</p>
       ) : (
         <ReadingChart
           quantity={quantity}
@@ -64,6 +116,7 @@ function QuantityChartPanel({
           fromMs={readings.fromMs}
           toMs={readings.toMs}
           bucketMs={readings.bucketMs}
+          extraLine={extraLine}
         />
       )}
       {summary && (
@@ -77,6 +130,7 @@ function QuantityChartPanel({
           {summary.hasWindow && (
             <span>
               Out of window <strong>{formatDuration(summary.outMs)}</strong>
+              {stretchCount > 0 && ` in ${stretchCount === 1 ? "1 stretch" : `${stretchCount} stretches`}`}
             </span>
           )}
         </figcaption>
@@ -85,7 +139,49 @@ function QuantityChartPanel({
   );
 }
 
-function ChartKey() {
+function VpdPanel({ points, readings, range }: { points: readonly DerivedPoint[]; readings: BenchReadingsResponse; range: ChartRange }) {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const p of points) {
+    lo = Math.min(lo, p.vpdKPa);
+    hi = Math.max(hi, p.vpdKPa);
+  }
+  return (
+    <figure aria-labelledby="chart-vpd" data-quantity="vpd" className="rounded-2xl border-2 border-line bg-surface p-3 sm:p-4">
+      <div className="mb-2 flex flex-wrap items-baseline justify-between gap-x-3">
+        <h3 id="chart-vpd" className="text-lg font-bold">
+          Vapour-pressure deficit (VPD)
+        </h3>
+        <span className="text-base text-muted">kPa</span>
+      </div>
+      {points.length === 0 ? (
+        <p className="flex h-40 items-center justify-center text-lg text-muted">No air temperature and humidity {describeRangeInSentence(range)}</p>
+      ) : (
+        <MultiLineChart
+          series={[{ key: "vpd", label: "VPD", color: "var(--bw-accent)", points: points.map((p) => ({ timeMs: p.timeMs, value: p.vpdKPa, status: "unknown" })) }]}
+          fromMs={readings.fromMs}
+          toMs={readings.toMs}
+          bucketMs={readings.bucketMs}
+          axis={niceAxis(lo, hi, 0.4)}
+          formatValue={(v) => `${v.toFixed(2)} kPa`}
+          heightPx={220}
+        />
+      )}
+      {points.length > 0 && (
+        <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-base">
+          <span>
+            Low <strong>{lo.toFixed(2)} kPa</strong>
+          </span>
+          <span>
+            High <strong>{hi.toFixed(2)} kPa</strong>
+          </span>
+        </figcaption>
+      )}
+    </figure>
+  );
+}
+
+export function ChartKey({ hasDewPoint = false }: { hasDewPoint?: boolean }) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-base text-muted" aria-label="Chart key">
       <li className="flex items-center gap-1.5">
@@ -104,6 +200,7 @@ function ChartKey() {
         Rooting window
       </li>
       <li className="flex items-center gap-1.5">
+        <span aria-hidden="true" className="inline-block h-3 w-6 rounded-sm bg-[var(--bw-high)] opacity-25" />
         <span aria-hidden="true" className="text-low">
           ▼
         </span>
@@ -112,6 +209,12 @@ function ChartKey() {
         </span>
         Out of window
       </li>
+      {hasDewPoint && (
+        <li className="flex items-center gap-1.5">
+          <span className="inline-block w-6 border-t-2 border-dashed border-[var(--bw-accent)]" aria-hidden="true" />
+          Dew point
+        </li>
+      )}
     </ul>
   );
 }

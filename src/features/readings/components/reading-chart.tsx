@@ -4,9 +4,17 @@ import { formatQuantity, toDisplayValue, type TemperatureUnit } from "../../../.
 import type { WindowedQuantity } from "../../../../shared/schemas/quantities.js";
 import type { SeriesPoint } from "../../../../shared/schemas/readings.js";
 import type { QuantityWindow } from "../../../../shared/schemas/windows.js";
-import { formatClockTime, formatDateTime } from "../../../lib/format-time";
+import { formatDateTime } from "../../../lib/format-time";
 import { describeStatus } from "../../../lib/quantity-labels";
-import { chartAxis, hourTicks, toChartPoints, type ChartPoint } from "../utils/chart-points";
+import { chartAxis, outOfWindowStretches, timeAxis, toChartPoints, type ChartPoint } from "../utils/chart-points";
+
+/** A line worked out from other series (the dew point), drawn over the chart in the same unit. */
+export type ExtraLine = {
+  label: string;
+  /** Display units, by bucket start. */
+  values: ReadonlyMap<number, number>;
+  format: (displayValue: number) => string;
+};
 
 type ReadingChartProps = {
   quantity: WindowedQuantity;
@@ -17,18 +25,29 @@ type ReadingChartProps = {
   toMs: number;
   bucketMs: number;
   heightPx?: number;
+  extraLine?: ExtraLine;
 };
 
-const AXIS_TICK = { fill: "var(--bw-muted)", fontSize: 14 };
+type PlotPoint = ChartPoint & { extra: number | null };
+
+export const AXIS_TICK = { fill: "var(--bw-muted)", fontSize: 14 };
+
+/** Shading of out-of-window stretches: light enough that the window band and the line stay readable. */
+export const STRETCH_FILL = { below: "var(--bw-low)", above: "var(--bw-high)" } as const;
+export const STRETCH_OPACITY = 0.14;
 
 /**
  * One quantity over time: the mean as a line, the bucket's min–max as a light area, the rooting
- * window as a shaded band. Buckets whose mean is out of window get a marker (▼ below, ▲ above),
- * so the chart reads without colour too.
+ * window as a shaded band, and each stretch out of window shaded across the chart's height.
+ * Buckets whose mean is out of window also get a marker (▼ below, ▲ above), so the chart reads
+ * without colour too. An optional derived line (the dew point on the air chart) is dashed.
  */
-export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220 }: ReadingChartProps) {
-  const data = toChartPoints(points, quantity, unit, bucketMs, window);
-  const axis = chartAxis(data, quantity, unit, window);
+export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220, extraLine }: ReadingChartProps) {
+  const chartPoints = toChartPoints(points, quantity, unit, bucketMs, window);
+  const data: PlotPoint[] = chartPoints.map((p) => ({ ...p, extra: p.mean === null ? null : (extraLine?.values.get(p.timeMs) ?? null) }));
+  const axis = chartAxis(chartPoints, quantity, unit, window, extraLine ? [...extraLine.values.values()] : []);
+  const time = timeAxis(fromMs, toMs);
+  const stretches = outOfWindowStretches(chartPoints, bucketMs);
 
   return (
     <ComposedChart
@@ -43,19 +62,31 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
         type="number"
         scale="time"
         domain={[fromMs, toMs]}
-        ticks={hourTicks(fromMs, toMs, 6)}
-        tickFormatter={(t: number) => formatClockTime(t)}
+        ticks={time.ticks}
+        tickFormatter={time.format}
         tick={AXIS_TICK}
         stroke="var(--bw-line)"
+        allowDataOverflow
       />
       <YAxis
         domain={axis.domain}
         ticks={axis.ticks}
-        width={48}
+        width={52}
         tickFormatter={(v: number) => v.toFixed(axis.decimals)}
         tick={AXIS_TICK}
         stroke="var(--bw-line)"
       />
+      {stretches.map((s) => (
+        <ReferenceArea
+          key={`${s.status}-${s.startMs}`}
+          x1={Math.max(s.startMs, fromMs)}
+          x2={Math.min(s.endMs, toMs)}
+          fill={STRETCH_FILL[s.status]}
+          fillOpacity={STRETCH_OPACITY}
+          stroke="none"
+          className="bw-out-of-window"
+        />
+      ))}
       {window && (
         <ReferenceArea
           y1={toDisplayValue(quantity, window.min, unit)}
@@ -65,6 +96,7 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
           stroke="var(--bw-chart-band)"
           strokeOpacity={0.7}
           strokeDasharray="6 4"
+          className="bw-window-band"
         />
       )}
       <Area
@@ -76,6 +108,19 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
         isAnimationActive={false}
         activeDot={false}
       />
+      {extraLine && (
+        <Line
+          dataKey="extra"
+          name={extraLine.label}
+          stroke="var(--bw-accent)"
+          strokeWidth={2}
+          strokeDasharray="5 4"
+          connectNulls={false}
+          isAnimationActive={false}
+          dot={false}
+          activeDot={{ r: 4 }}
+        />
+      )}
       <Line
         dataKey="mean"
         stroke="var(--bw-chart-line)"
@@ -86,7 +131,7 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
         activeDot={{ r: 5 }}
       />
       <Tooltip
-        content={(props) => <ChartTooltip {...props} quantity={quantity} unit={unit} />}
+        content={(props) => <ChartTooltip {...props} quantity={quantity} unit={unit} extraLine={extraLine} />}
         cursor={{ stroke: "var(--bw-muted)", strokeWidth: 1 }}
       />
     </ComposedChart>
@@ -95,7 +140,7 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
 
 type DotProps = { cx?: number; cy?: number; payload?: ChartPoint; index?: number };
 
-function OutOfWindowDot({ cx, cy, payload, index }: DotProps) {
+export function OutOfWindowDot({ cx, cy, payload, index }: DotProps) {
   const key = `dot-${index}`;
   if (cx === undefined || cy === undefined || !payload || payload.mean === null) return <g key={key} />;
   if (payload.status === "below") {
@@ -107,10 +152,10 @@ function OutOfWindowDot({ cx, cy, payload, index }: DotProps) {
   return <g key={key} />;
 }
 
-type ChartTooltipProps = Partial<TooltipContentProps> & { quantity: WindowedQuantity; unit: TemperatureUnit };
+type ChartTooltipProps = Partial<TooltipContentProps> & { quantity: WindowedQuantity; unit: TemperatureUnit; extraLine?: ExtraLine };
 
-function ChartTooltip({ active, payload, quantity, unit }: ChartTooltipProps) {
-  const point = payload?.[0]?.payload as ChartPoint | undefined;
+function ChartTooltip({ active, payload, quantity, unit, extraLine }: ChartTooltipProps) {
+  const point = payload?.[0]?.payload as PlotPoint | undefined;
   if (!active || !point?.si) return null;
   return (
     <div className="rounded-lg border-2 border-line bg-surface px-3 py-2 text-base shadow-md">
@@ -121,6 +166,11 @@ function ChartTooltip({ active, payload, quantity, unit }: ChartTooltipProps) {
       <div className="text-muted">
         Range {formatQuantity(quantity, point.si.min, unit)} – {formatQuantity(quantity, point.si.max, unit)}
       </div>
+      {extraLine && point.extra !== null && (
+        <div>
+          {extraLine.label} <strong>{extraLine.format(point.extra)}</strong>
+        </div>
+      )}
       {point.status !== "unknown" && <div className="font-semibold">{describeStatus(quantity, point.status)}</div>}
     </div>
   );

@@ -2,7 +2,7 @@ import { render, screen, within } from "@testing-library/react";
 import { MemoryRouter } from "react-router-dom";
 import { describe, expect, it } from "vitest";
 import { TemperatureUnitProvider } from "../../../lib/temperature-unit";
-import { NOW_MS, makeBench, reading } from "../../../testing/data";
+import { NOW_MS, makeAlert, makeBench, reading } from "../../../testing/data";
 import { BenchCard } from "./bench-card";
 
 function renderCard(bench = makeBench(), unit: "F" | "C" = "F") {
@@ -100,5 +100,32 @@ describe("BenchCard", () => {
     expect(within(tile("Medium moisture")).getByText("Window 25–45 % VWC")).toBeTruthy();
     const link = screen.getByRole("link", { name: /Bench 7/ });
     expect(link.getAttribute("href")).toBe("/benches/7");
+  });
+});
+
+describe("BenchCard alerts", () => {
+  it("lists the open alerts in words with the phase icon, raised first, each a link to the alert; a raised one marks the card", () => {
+    renderCard(
+      makeBench({
+        alerts: [
+          makeAlert({ id: 4, phase: "acknowledged", acknowledgedByName: "Marisol", sinceMs: NOW_MS - 3_600_000 }),
+          makeAlert({ id: 5, phase: "raised", kind: "condensation", quantity: null, direction: null, lastValue: 1, summary: "Condensation risk" }),
+          makeAlert({ id: 6, phase: "watching", raisedAtMs: null }),
+        ],
+      }),
+    );
+    const list = screen.getByRole("list", { name: "Open alerts on Bench 1" });
+    const links = within(list).getAllByRole("link");
+    expect(links.map((l) => l.getAttribute("href"))).toEqual(["/alerts/5", "/alerts/6", "/alerts/4"]);
+    expect(links[0]?.textContent).toMatch(/^Raised .* · Condensation risk · 1\.8 °F above the dew point$/);
+    expect(links[0]?.querySelector("svg[data-icon='phase-raised']")).not.toBeNull();
+    expect(links[1]?.textContent).toContain("Watching: hold-off running · Air too cold");
+    expect(links[2]?.textContent).toContain("Acknowledged by Marisol · Air too cold");
+    expect(screen.getByRole("article").className).toContain("border-high");
+  });
+
+  it("shows no alert list for a bench without open alerts", () => {
+    renderCard(makeBench({ alerts: [] }));
+    expect(screen.queryByRole("list", { name: /Open alerts/ })).toBeNull();
   });
 });

@@ -6,6 +6,7 @@ import { StatusPill } from "../../../components/ui/status-pill";
 import { paths } from "../../../config/paths";
 import { formatDuration, isStale } from "../../../lib/format-time";
 import { describeBenchStatus, findLatest } from "../utils/describe-bench";
+import { BenchAlerts } from "./bench-alerts";
 import { QuantityTile } from "./quantity-tile";
 
 type BenchCardProps = { bench: BenchSummary; unit: TemperatureUnit; nowMs: number };
@@ -19,7 +20,11 @@ const CARD_BORDER = {
 
 /** A bench on the dashboard: its overall status and the four windowed quantities. The whole card opens the bench. */
 export function BenchCard({ bench, unit, nowMs }: BenchCardProps) {
-  const isOut = bench.status === "below" || bench.status === "above";
+  const alerts = bench.alerts ?? [];
+  // A raised alert (nobody has taken it yet) marks the card as loudly as a value out of window.
+  const isValueOut = bench.status === "below" || bench.status === "above";
+  const hasRaised = alerts.some((a) => a.phase === "raised");
+  const isOut = isValueOut || hasRaised;
   const newestMs = bench.latest.length > 0 ? Math.max(...bench.latest.map((l) => l.timeMs)) : null;
   // Every value is old: say so at the top, so "All in window" is not read as current news.
   const isQuiet = newestMs !== null && isStale(newestMs, nowMs);
@@ -28,9 +33,10 @@ export function BenchCard({ bench, unit, nowMs }: BenchCardProps) {
       aria-labelledby={`bench-${bench.id}-name`}
       data-bench-id={bench.id}
       data-status={bench.status}
+      data-open-alerts={alerts.length || undefined}
       className={`relative flex flex-col gap-3 rounded-2xl bg-surface p-3 shadow-sm transition-shadow focus-within:shadow-md hover:shadow-md sm:p-4 ${
         isOut ? "border-4" : "border-2"
-      } ${CARD_BORDER[bench.status]}`}
+      } ${hasRaised && !isValueOut ? "border-high" : CARD_BORDER[bench.status]}`}
     >
       <header className="flex flex-wrap items-center justify-between gap-2">
         <h3 id={`bench-${bench.id}-name`} className="text-2xl font-bold leading-tight">
@@ -45,6 +51,7 @@ export function BenchCard({ bench, unit, nowMs }: BenchCardProps) {
         </h3>
         <StatusPill status={bench.status} label={describeBenchStatus(bench)} />
       </header>
+      <BenchAlerts alerts={alerts} unit={unit} benchName={bench.name} />
       {isQuiet && (
         <p className="-mt-1 text-base font-bold text-muted">No new readings for {formatDuration(nowMs - newestMs)}</p>
       )}
