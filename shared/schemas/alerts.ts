@@ -44,6 +44,10 @@ export const alertsQuerySchema = z.object({
   zoneId: z.coerce.number().int().positive().optional(),
   kind: alertKindSchema.optional(),
   phase: alertPhaseSchema.optional(),
+  benchId: z.coerce.number().int().positive().optional(),
+  /** Alerts that were open at some time in [fromMs, toMs) (ms since 1970). */
+  fromMs: z.coerce.number().int().min(0).optional(),
+  toMs: z.coerce.number().int().min(0).optional(),
   limit: z.coerce.number().int().min(1).max(500).default(100),
 });
 export type AlertsQuery = z.infer<typeof alertsQuerySchema>;
@@ -59,6 +63,8 @@ export type AcknowledgeInput = z.infer<typeof acknowledgeInputSchema>;
 /** GET /api/ack-links/:token: what the acknowledge page shows; reading it changes nothing. */
 export const ackLinkResponseSchema = z.object({
   recipientName: z.string(),
+  /** The recipient's own °F/°C, so the page shows what the mail showed. */
+  recipientUnit: z.enum(["F", "C"]).default("F"),
   expiresAtMs: z.number(),
   alerts: z.array(alertSchema),
   /** False when every alert of the link is already acknowledged or cleared. */
@@ -102,6 +108,11 @@ export const dutyRotaResponseSchema = z.object({
   timeZone: z.string(),
 });
 export type DutyRotaResponse = z.infer<typeof dutyRotaResponseSchema>;
+
+/** GET /api/duty-rota/candidates: who may be put on duty (active users who can acknowledge). */
+export const dutyCandidatesResponseSchema = z.object({
+  users: z.array(z.object({ id: z.number().int(), name: z.string(), role: z.enum(["admin", "manager", "grower"]) })),
+});
 
 /** SSE event "alerts" on /api/stream: alerts that changed. */
 export const alertsEventSchema = z.object({ alerts: z.array(alertSchema) });

@@ -106,13 +106,18 @@ describe("a bench out of window", () => {
     expect(await mailbox(server, admin)).toHaveLength(1);
     const [alert] = (await openAlerts(server, admin)).filter((a) => a.benchId === air.benchId);
     expect(alert).toMatchObject({ kind: "window", phase: "raised", quantity: "air.temperature", direction: "below" });
+    // The bench and time filters the bench page and the charts use.
+    const forBench = await request(server.baseUrl).get(`/api/alerts?status=all&benchId=${air.benchId}&fromMs=${Date.now() - 3_600_000}`).auth(admin, { type: "bearer" }).expect(200);
+    expect(alertsResponseSchema.parse(forBench.body).alerts.map((a) => a.benchId)).toEqual([air.benchId]);
+    const before = await request(server.baseUrl).get(`/api/alerts?status=all&benchId=${air.benchId}&toMs=${Date.now() - 3_600_000}`).auth(admin, { type: "bearer" }).expect(200);
+    expect(alertsResponseSchema.parse(before.body).alerts).toEqual([]);
   });
 
   it("opening the acknowledge link changes nothing; one tap acknowledges; the link then fails", async () => {
     const [mail] = await mailbox(server, admin);
     const token = ackToken(mail!);
     const shown = ackLinkResponseSchema.parse((await request(server.baseUrl).get(`/api/ack-links/${encodeURIComponent(token)}`).expect(200)).body);
-    expect(shown).toMatchObject({ recipientName: "Marisol Ortega", canAcknowledge: true });
+    expect(shown).toMatchObject({ recipientName: "Marisol Ortega", recipientUnit: "F", canAcknowledge: true });
     expect(shown.alerts[0]!.phase).toBe("raised");
     await request(server.baseUrl).get(`/api/ack-links/${encodeURIComponent(token)}`).expect(200);
     expect((await openAlerts(server, admin))[0]!.phase).toBe("raised");

@@ -38,6 +38,7 @@ const MATRIX: Record<string, Access> = {
   "GET /api/ack-links/:token": "public",
   "POST /api/ack-links/:token": "public",
   "GET /api/duty-rota": ALL,
+  "GET /api/duty-rota/candidates": ["admin", "manager"],
   "POST /api/duty-rota/shifts": ["admin", "manager"],
   "PUT /api/duty-rota/shifts/:id": ["admin", "manager"],
   "DELETE /api/duty-rota/shifts/:id": ["admin", "manager"],

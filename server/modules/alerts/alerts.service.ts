@@ -29,9 +29,13 @@ export class AlertsService {
     else if (query.status === "past") where.phase = "cleared";
     if (query.zoneId) where.zoneId = query.zoneId;
     if (query.kind) where.kind = query.kind;
+    if (query.benchId) where.benchId = query.benchId;
     await this.layout.reload();
-    const rows = await this.dataSource.getRepository(AlertEntity).find({ where, order: { sinceMs: "DESC" }, take: query.limit });
-    return rows.map((a) => this.view(a));
+    let rows = await this.dataSource.getRepository(AlertEntity).find({ where, order: { sinceMs: "DESC" }, take: query.fromMs !== undefined || query.toMs !== undefined ? 5000 : query.limit });
+    // Open at some moment of the range: began before its end, and not cleared before its start.
+    if (query.toMs !== undefined) rows = rows.filter((a) => a.sinceMs < query.toMs!);
+    if (query.fromMs !== undefined) rows = rows.filter((a) => a.clearedAtMs === null || a.clearedAtMs >= query.fromMs!);
+    return rows.slice(0, query.limit).map((a) => this.view(a));
   }
 
   async get(id: number): Promise<AlertView> {
@@ -74,7 +78,7 @@ export class AlertsService {
     const { link, user } = await this.link(token);
     await this.layout.reload();
     const alerts = await this.views(link.alertIds);
-    return { recipientName: user.name, expiresAtMs: link.expiresAtMs, alerts, canAcknowledge: alerts.some((a) => a.phase === "raised") };
+    return { recipientName: user.name, recipientUnit: user.temperatureUnit, expiresAtMs: link.expiresAtMs, alerts, canAcknowledge: alerts.some((a) => a.phase === "raised") };
   }
 
   /** One tap: acknowledge every still-raised alert of the link as its recipient. */
@@ -91,6 +95,6 @@ export class AlertsService {
       );
     }
     for (const a of raised) await this.engine.acknowledge(a.id, { id: user.id, name: user.name }, note).catch(() => undefined);
-    return { recipientName: user.name, expiresAtMs: link.expiresAtMs, alerts: await this.views(link.alertIds), canAcknowledge: false };
+    return { recipientName: user.name, recipientUnit: user.temperatureUnit, expiresAtMs: link.expiresAtMs, alerts: await this.views(link.alertIds), canAcknowledge: false };
   }
 }

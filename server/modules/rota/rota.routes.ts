@@ -12,6 +12,9 @@ export function rotaRoutes(table: RouteTable, rota: RotaService): Router {
   r.get("/duty-rota", EVERYONE_SIGNED_IN, async (_req, res) => {
     res.json(await rota.rota());
   });
+  r.get("/duty-rota/candidates", ROTA_EDITORS, async (_req, res) => {
+    res.json({ users: await rota.candidates() });
+  });
   r.post("/duty-rota/shifts", ROTA_EDITORS, async (req, res) => {
     res.status(201).json({ shift: await rota.create(dutyShiftInputSchema.parse(req.body)) });
   });

@@ -48,6 +48,12 @@ export class RotaService {
     return { shifts: await this.views(shifts), onDutyNow, timeZone };
   }
 
+  /** Active users who can acknowledge, for the rota's person picker (managers cannot list users). */
+  async candidates(): Promise<{ id: number; name: string; role: "admin" | "manager" | "grower" }[]> {
+    const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false }, order: { name: "ASC" } });
+    return users.flatMap((u) => (u.role === "viewer" ? [] : [{ id: u.id, name: u.name, role: u.role }]));
+  }
+
   async create(input: DutyShiftInput): Promise<DutyShift> {
     await this.assertRefs(input);
     const saved = await this.dataSource.getRepository(DutyShiftEntity).save({ ...input });
