@@ -26,6 +26,12 @@ const report = () => {
   }
 };
 
+// Asked to stop: say exactly how many were acknowledged, then go.
+process.on("SIGTERM", () => {
+  process.stdout.write(`stopped ${acked}\n`);
+  process.exit(0);
+});
+
 const deadline = setTimeout(() => {
   process.stdout.write(`timeout ${acked}\n`);
   process.exit(1);
