@@ -78,6 +78,34 @@ describe("first run outside demo mode", () => {
 });
 
 describe("database", () => {
+  it("upgrades a database of the first release's schema, keeping its data", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "benchwarden-upgrade-"));
+    const path = join(dir, "db.sqlite");
+    const { MIGRATIONS } = await import("../../server/db/migrations/index.js");
+    const { DataSource } = await import("typeorm");
+    // The first release: only the first migration.
+    const old = new DataSource({ type: "better-sqlite3", database: path, migrations: [MIGRATIONS[0]!], synchronize: false });
+    await old.initialize();
+    await old.runMigrations();
+    await old.query(`INSERT INTO site (id, name, time_zone, created_at_ms) VALUES (1, 'Old Orchard', 'UTC', 1)`);
+    await old.query(`INSERT INTO zone (id, site_id, name, position) VALUES (1, 1, 'House A', 0)`);
+    await old.query(`INSERT INTO bench (id, zone_id, name, position) VALUES (1, 1, 'Bench 1', 0)`);
+    await old.query(`INSERT INTO sensor (id, kind, secret_hash, bench_id, created_at_ms) VALUES ('old-1', 'air', '${"0".repeat(64)}', 1, 1)`);
+    await old.query(`INSERT INTO reading (sensor_id, quantity, time_ms, value, bench_id) VALUES ('old-1', 'air.temperature', 1000, 21.5, 1)`);
+    await old.destroy();
+
+    const current = createDataSource(path);
+    await current.initialize();
+    const applied = await current.runMigrations();
+    expect(applied.length).toBe(MIGRATIONS.length - 1);
+    expect((await current.driver.createSchemaBuilder().log()).upQueries).toEqual([]);
+    expect(await current.query("SELECT name FROM site")).toEqual([{ name: "Old Orchard" }]);
+    expect(await current.query("SELECT value FROM reading WHERE sensor_id = 'old-1'")).toEqual([{ value: 21.5 }]);
+    expect(await current.query("SELECT disabled_at_ms FROM sensor WHERE id = 'old-1'")).toEqual([{ disabled_at_ms: null }]);
+    await current.destroy();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
   it("the migrations build exactly the schema the entities describe", async () => {
     const dir = mkdtempSync(join(tmpdir(), "benchwarden-db-"));
     const dataSource = createDataSource(join(dir, "db.sqlite"));
