@@ -22,7 +22,10 @@ function apiFor(role: Role) {
     "GET /api/session": { body: makeSession(USERS[role]) },
     "GET /api/zones": { body: makeZones() },
     "GET /api/duty-rota": { body: ROTA },
-    "GET /api/users": role === "admin" ? { body: { users: Object.values(USERS) } } : problem(403, "forbidden"),
+    "GET /api/duty-rota/candidates":
+      role === "admin" || role === "manager"
+        ? { body: { users: Object.values(USERS).flatMap((u) => (u.role === "viewer" ? [] : [{ id: u.id, name: u.name, role: u.role as "admin" | "manager" | "grower" }])) } }
+        : problem(403, "forbidden"),
   });
 }
 
@@ -52,7 +55,7 @@ describe("duty rota page", () => {
       expect(fallback.textContent).toContain("Fallback");
       expect(screen.getByText(/site's local time \(America\/Chicago\)/)).toBeTruthy();
       expect(screen.queryByRole("button", { name: /Add a shift|Edit|Delete/ })).toBeNull();
-      expect(api.requests.map((r) => r.path)).not.toContain("/api/users");
+      expect(api.requests.map((r) => r.path)).not.toContain("/api/duty-rota/candidates");
     },
     ROUTE_TEST_TIMEOUT_MS,
   );
@@ -78,9 +81,9 @@ describe("duty rota page", () => {
       expect(within(form).getByText("Choose at least one day")).toBeTruthy();
       expect(api.sent("POST /api/duty-rota/shifts")).toHaveLength(0);
 
-      // A manager may not list users: the choices are the people on the rota (and on duty now).
+      // A manager gets everyone who can acknowledge from /api/duty-rota/candidates (no viewers).
       const who = within(form).getByRole("combobox", { name: /Who/ });
-      expect(within(who).getAllByRole("option").map((o) => o.textContent)).toEqual(["Choose a person…", "Gil Grower", "Mo Manager"]);
+      expect(within(who).getAllByRole("option").map((o) => o.textContent)).toEqual(["Choose a person…", "Ada Admin", "Mo Manager", "Gil Grower"]);
       fireEvent.change(who, { target: { value: "3" } });
       fireEvent.change(within(form).getByRole("combobox", { name: "Zone" }), { target: { value: "2" } });
       fireEvent.click(within(form).getByRole("button", { name: "Weekend" }));

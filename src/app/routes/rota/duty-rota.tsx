@@ -7,7 +7,7 @@ import { RouteError } from "../../../components/errors/route-error";
 import { getSessionQueryOptions } from "../../../features/auth/api/get-session";
 import { getDutyRotaQueryOptions } from "../../../features/rota/api/get-duty-rota";
 import { DutyRota } from "../../../features/rota/components/duty-rota";
-import { getUsersQueryOptions } from "../../../features/users/api/get-users";
+import { getDutyCandidatesQueryOptions } from "../../../features/rota/api/get-duty-candidates";
 import { useNow } from "../../../hooks/use-now";
 import { ALLOWED, useAuthorization } from "../../../lib/authorization";
 
@@ -17,8 +17,8 @@ export const clientLoader =
     const session = await queryClient.ensureQueryData(getSessionQueryOptions());
     await Promise.all([
       queryClient.ensureQueryData(getDutyRotaQueryOptions()),
-      // Only an admin may list the users; for them the picker offers everyone who can acknowledge.
-      (ALLOWED.manageUsers as readonly Role[]).includes(session.user.role) ? queryClient.prefetchQuery(getUsersQueryOptions()) : null,
+      // Those who edit the rota get the list of everyone who can acknowledge, for the picker.
+      (ALLOWED.manageGrowing as readonly Role[]).includes(session.user.role) ? queryClient.prefetchQuery(getDutyCandidatesQueryOptions()) : null,
     ]);
     return null;
   };
@@ -26,10 +26,10 @@ export const clientLoader =
 /** `/duty-rota`: who is told about alerts, per zone, by day and hour. Admins and managers edit it. */
 export default function DutyRotaRoute() {
   const { isAllowed } = useAuthorization();
-  const isAdmin = isAllowed(ALLOWED.manageUsers);
-  const users = useQuery({ ...getUsersQueryOptions(), enabled: isAdmin });
-  // Viewers cannot acknowledge, so cannot be on duty; disabled accounts are not offered either.
-  const people = isAdmin && users.data ? users.data.users.filter((u) => u.role !== "viewer" && !u.disabled).map((u) => ({ id: u.id, name: u.name })) : undefined;
+  const canEdit = isAllowed(ALLOWED.manageGrowing);
+  // The server lists active admins, managers and growers: viewers cannot acknowledge, so cannot be on duty.
+  const candidates = useQuery({ ...getDutyCandidatesQueryOptions(), enabled: canEdit });
+  const people = candidates.data?.users.map((u) => ({ id: u.id, name: u.name }));
   const nowMs = useNow(60_000);
   return (
     <div className="flex flex-col gap-6">

@@ -9,6 +9,10 @@ export type AlertFilters = {
   zoneId?: number;
   kind?: AlertKind;
   phase?: AlertPhase;
+  benchId?: number;
+  /** Alerts open at some moment of [fromMs, toMs). */
+  fromMs?: number;
+  toMs?: number;
   limit?: number;
 };
 
@@ -16,10 +20,19 @@ export type AlertFilters = {
 export const OPEN_ALERTS_LIMIT = 500;
 
 /** GET /api/alerts: newest first. */
-export function getAlerts({ status, zoneId, kind, phase, limit }: AlertFilters, { signal }: { signal?: AbortSignal } = {}) {
+export function getAlerts({ status, zoneId, kind, phase, benchId, fromMs, toMs, limit }: AlertFilters, { signal }: { signal?: AbortSignal } = {}) {
   return apiGet("/api/alerts", alertsResponseSchema, {
     signal,
-    params: { status, zoneId: zoneId?.toString(), kind, phase, limit: limit?.toString() },
+    params: {
+      status,
+      zoneId: zoneId?.toString(),
+      kind,
+      phase,
+      benchId: benchId?.toString(),
+      fromMs: fromMs?.toString(),
+      toMs: toMs?.toString(),
+      limit: limit?.toString(),
+    },
   });
 }
 
@@ -27,13 +40,16 @@ export function getAlerts({ status, zoneId, kind, phase, limit }: AlertFilters, 
 export const ALERT_LISTS_KEY = ["alerts", "list"] as const;
 
 export function getAlertsQueryOptions(filters: AlertFilters) {
-  const { status, zoneId, kind, phase, limit } = filters;
+  const { status, zoneId, kind, phase, benchId, fromMs, toMs, limit } = filters;
   // Undefined filters are left out, so equal filters always give equal keys.
   const key = {
     status,
     ...(zoneId !== undefined && { zoneId }),
     ...(kind !== undefined && { kind }),
     ...(phase !== undefined && { phase }),
+    ...(benchId !== undefined && { benchId }),
+    ...(fromMs !== undefined && { fromMs }),
+    ...(toMs !== undefined && { toMs }),
     ...(limit !== undefined && { limit }),
   };
   return queryOptions({

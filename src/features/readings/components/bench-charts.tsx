@@ -10,7 +10,7 @@ import { derivedPoints, niceAxis, outOfWindowStretches, summarizeSeries, toChart
 import { DEFAULT_RANGE, describeRange, describeRangeInSentence, type ChartRange } from "../utils/chart-range";
 import { DerivedToggles, type DerivedChoice } from "./derived-toggles";
 import { MultiLineChart } from "./multi-line-chart";
-import { ReadingChart, type ExtraLine } from "./reading-chart";
+import { ReadingChart, type ChartMarker, type ExtraLine } from "./reading-chart";
 
 type BenchChartsProps = {
   readings: BenchReadingsResponse;
@@ -18,6 +18,8 @@ type BenchChartsProps = {
   range?: ChartRange;
   /** Shown beside the heading: the range picker, the export button. */
   controls?: ReactNode;
+  /** Moments to mark, per quantity (alerts raised), composed by the route. */
+  markers?: Partial<Record<WindowedQuantity, readonly ChartMarker[]>>;
 };
 
 /**
@@ -25,7 +27,7 @@ type BenchChartsProps = {
  * point (on the air chart) and the VPD (a chart of its own), both worked out from the air
  * temperature and humidity series with shared/domain/psychrometrics.ts.
  */
-export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls }: BenchChartsProps) {
+export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls, markers }: BenchChartsProps) {
   const [derived, setDerived] = useState<DerivedChoice>({ dewPoint: false, vpd: false });
   const series = (q: WindowedQuantity) => readings.series.find((s) => s.quantity === q)?.points ?? [];
   const derivedSeries = derived.dewPoint || derived.vpd ? derivedPoints(series("air.temperature"), series("air.humidity")) : [];
@@ -51,6 +53,7 @@ export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls }:
               unit={unit}
               range={range}
               extraLine={quantity === "air.temperature" && derived.dewPoint ? dewPointLine(derivedSeries, unit) : undefined}
+              markers={markers?.[quantity]}
             />
           </PanelBoundary>
         ))}
@@ -84,12 +87,14 @@ function QuantityChartPanel({
   unit,
   range,
   extraLine,
+  markers,
 }: {
   quantity: WindowedQuantity;
   readings: BenchReadingsResponse;
   unit: TemperatureUnit;
   range: ChartRange;
   extraLine?: ExtraLine;
+  markers?: readonly ChartMarker[];
 }) {
   const points = readings.series.find((s) => s.quantity === quantity)?.points ?? [];
   const window = readings.windows.find((w) => w.quantity === quantity);
@@ -117,6 +122,7 @@ function QuantityChartPanel({
           toMs={readings.toMs}
           bucketMs={readings.bucketMs}
           extraLine={extraLine}
+          markers={markers}
         />
       )}
       {summary && (

@@ -1,4 +1,4 @@
-import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from "recharts";
+import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { TooltipContentProps } from "recharts";
 import { formatQuantity, toDisplayValue, type TemperatureUnit } from "../../../../shared/domain/units.js";
 import type { WindowedQuantity } from "../../../../shared/schemas/quantities.js";
@@ -16,6 +16,9 @@ export type ExtraLine = {
   format: (displayValue: number) => string;
 };
 
+/** A moment to mark on the chart (an alert raised), with a short label. */
+export type ChartMarker = { timeMs: number; label: string };
+
 type ReadingChartProps = {
   quantity: WindowedQuantity;
   points: readonly SeriesPoint[];
@@ -26,6 +29,7 @@ type ReadingChartProps = {
   bucketMs: number;
   heightPx?: number;
   extraLine?: ExtraLine;
+  markers?: readonly ChartMarker[];
 };
 
 type PlotPoint = ChartPoint & { extra: number | null };
@@ -42,7 +46,7 @@ export const STRETCH_OPACITY = 0.14;
  * Buckets whose mean is out of window also get a marker (▼ below, ▲ above), so the chart reads
  * without colour too. An optional derived line (the dew point on the air chart) is dashed.
  */
-export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220, extraLine }: ReadingChartProps) {
+export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220, extraLine, markers = [] }: ReadingChartProps) {
   const chartPoints = toChartPoints(points, quantity, unit, bucketMs, window);
   const data: PlotPoint[] = chartPoints.map((p) => ({ ...p, extra: p.mean === null ? null : (extraLine?.values.get(p.timeMs) ?? null) }));
   const axis = chartAxis(chartPoints, quantity, unit, window, extraLine ? [...extraLine.values.values()] : []);
@@ -99,6 +103,19 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
           className="bw-window-band"
         />
       )}
+      {markers
+        .filter((m) => m.timeMs >= fromMs && m.timeMs <= toMs)
+        .map((m) => (
+          <ReferenceLine
+            key={`${m.timeMs}-${m.label}`}
+            x={m.timeMs}
+            stroke="var(--bw-ink)"
+            strokeWidth={2}
+            strokeDasharray="2 3"
+            className="bw-alert-marker"
+            label={{ value: `⚠ ${m.label}`, position: "insideTopLeft", fill: "var(--bw-ink)", fontSize: 13 }}
+          />
+        ))}
       <Area
         dataKey="range"
         stroke="none"
