@@ -189,7 +189,8 @@ export class AlertEngine {
         const window = this.windows.windowFor(row.benchId, row.quantity);
         if (window) {
           const t = this.tracker(windowKey(row.benchId, row.quantity), { kind: "window", benchId: row.benchId, quantity: row.quantity, sensorId: null });
-          const result = evaluateSample(t.state, window, { timeMs: row.timeMs, value: row.value });
+          // A probe whose clock runs ahead must not shorten the hold-off: never evaluate a reading later than now.
+          const result = evaluateSample(t.state, window, { timeMs: Math.min(row.timeMs, nowMs), value: row.value });
           if (!result.ignored) await this.step(tx, t, result.transitions, result.state, nowMs, changed, row.value);
         }
         if (row.quantity === "air.temperature" || row.quantity === "air.humidity") await this.evaluateCondensation(tx, row, nowMs, changed);
@@ -217,7 +218,7 @@ export class AlertEngine {
       hysteresis: CONDENSATION_HYSTERESIS_C,
     };
     const t = this.tracker(condensationKey(benchId), { kind: "condensation", benchId, quantity: null, sensorId: null });
-    const result = evaluateSample(t.state, window, { timeMs: Math.max(pair.tempC.timeMs, pair.rhPct.timeMs), value: marginC });
+    const result = evaluateSample(t.state, window, { timeMs: Math.min(Math.max(pair.tempC.timeMs, pair.rhPct.timeMs), nowMs), value: marginC });
     if (!result.ignored) await this.step(tx, t, result.transitions, result.state, nowMs, changed, marginC);
   }
 

@@ -166,6 +166,23 @@ describe("a bench out of window", () => {
     expect((await openAlerts(server, admin)).filter((a) => a.benchId === air.benchId)).toHaveLength(0);
   });
 
+  it("readings stamped in the future (a fast probe clock) do not shorten the hold-off", async () => {
+    const air = server.credentials.filter((c) => c.kind === "air")[2]!;
+    const before = (await mailbox(server, admin)).length;
+    const nowS = Math.floor(Date.now() / 1000);
+    // Cold since 6 min 40 s ago, and a reading stamped 4 minutes ahead (accepted: within the
+    // 5-minute future limit). Taken at its word it would complete the 10-minute hold-off now.
+    await publish(server, air, [
+      { n: "air.temperature", u: "Cel", v: 15, t: nowS - 400 },
+      { n: "air.temperature", u: "Cel", v: 15, t: nowS + 240 },
+    ]);
+    await settle(server);
+    await settle(server);
+    expect(await mailbox(server, admin)).toHaveLength(before);
+    const watching = (await openAlerts(server, admin)).find((a) => a.benchId === air.benchId);
+    expect(watching?.phase).toBe("watching");
+  });
+
   it("when nobody acknowledges, then it is re-notified and then escalated to the manager", async () => {
     const medium = server.credentials.find((c) => c.kind === "medium")!;
     const before = (await mailbox(server, admin)).length;
