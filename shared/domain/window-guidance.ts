@@ -48,7 +48,7 @@ export const GUIDANCE_SOURCES = {
   },
   dewPointFormula: {
     basis: "benchwarden",
-    citation: "Benchwarden's condensation check: dew point by the Magnus form with the Alduchov & Eskridge (1996) coefficients",
+    citation: "How Benchwarden checks condensation: the dew point worked out from air temperature and humidity (a standard meteorological formula)",
     reference: "REFERENCES.md §2; shared/domain/psychrometrics.ts",
   },
   alertEngine: {

@@ -96,7 +96,7 @@ function PresetCard({ preset, canEdit, onEdit, onCopy }: { preset: WindowPreset;
               <li key={`${n.quantity ?? "margin"}`}>
                 <strong>{n.quantity ? QUANTITY_LABELS[n.quantity] : "Dew-point margin"}:</strong> {n.note}{" "}
                 <span className="text-muted">
-                  {BASIS_WORDS[n.source.basis]}: {n.source.citation} ({n.source.reference})
+                  {BASIS_WORDS[n.source.basis]}: {n.source.citation}
                 </span>
               </li>
             ))}

@@ -38,8 +38,8 @@ export function WindowWarningList({ warnings, isNew }: WindowWarningListProps) {
           </p>
           <p className="mt-1">{w.message}</p>
           <p className="mt-2 text-base text-muted">
-            <span className="font-semibold">{BASIS_WORDS[w.source.basis]}:</span> {w.source.citation}{" "}
-            <span className="whitespace-nowrap">({w.source.reference})</span>
+            {/* The citation is for people; the source's place in our own notes (reference) stays in the data. */}
+            <span className="font-semibold">{BASIS_WORDS[w.source.basis]}:</span> {w.source.citation}
           </p>
         </li>
       ))}
