@@ -98,7 +98,9 @@ function QuantityChartPanel({
 }) {
   const points = readings.series.find((s) => s.quantity === quantity)?.points ?? [];
   const window = readings.windows.find((w) => w.quantity === quantity);
-  const summary = summarizeSeries(points, readings.bucketMs, window);
+  const summary = summarizeSeries(points, readings.bucketMs, window, Math.min(readings.toMs, Date.now()));
+  // From bucket means: exact to the minute on short ranges, an estimate on long ones.
+  const isEstimate = readings.bucketMs > 5 * 60_000;
   const stretchCount = window ? outOfWindowStretches(toChartPoints(points, quantity, unit, readings.bucketMs, window), readings.bucketMs).length : 0;
   const headingId = `chart-${quantity.replace(".", "-")}`;
 
@@ -135,7 +137,7 @@ function QuantityChartPanel({
           </span>
           {summary.hasWindow && (
             <span>
-              Out of window <strong>{formatDuration(summary.outMs)}</strong>
+              Out of window <strong>{isEstimate && summary.outMs > 0 ? "≈ " : ""}{formatDuration(summary.outMs)}</strong>
               {stretchCount > 0 && ` in ${stretchCount === 1 ? "1 stretch" : `${stretchCount} stretches`}`}
             </span>
           )}

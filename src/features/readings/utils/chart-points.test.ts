@@ -109,3 +109,15 @@ describe("timeAxis", () => {
     expect(new Date(month[1]!).getDate() - new Date(month[0]!).getDate()).toBe(5);
   });
 });
+
+describe("summarizeSeries up to now", () => {
+  it("counts the newest, still-filling bucket only up to now", () => {
+    const window = { quantity: "air.temperature" as const, min: 21, max: 27, delayS: 600, hysteresis: 0.5 };
+    const bucketMs = 87 * 60_000; // a 30-day chart's bucket
+    const start = 1_800_000_000_000;
+    const points = [{ timeMs: start, min: 14, mean: 14, max: 14, count: 15 }];
+    // Fifteen minutes into the bucket: 15 min out of window, not 87.
+    expect(summarizeSeries(points, bucketMs, window, start + 15 * 60_000)?.outMs).toBe(15 * 60_000);
+    expect(summarizeSeries(points, bucketMs, window)?.outMs).toBe(bucketMs);
+  });
+});

@@ -110,7 +110,7 @@ function coverageMs(timeMs: number, nextTimeMs: number | undefined, bucketMs: nu
  * bucket out of window counts until the next bucket with data (at most MAX_COVERAGE_MS), so
  * readings sparser than the buckets are not undercounted.
  */
-export function summarizeSeries(points: readonly SeriesPoint[], bucketMs: number, window: QuantityWindow | undefined) {
+export function summarizeSeries(points: readonly SeriesPoint[], bucketMs: number, window: QuantityWindow | undefined, untilMs = Infinity) {
   if (points.length === 0) return null;
   const sorted = [...points].sort((a, b) => a.timeMs - b.timeMs);
   let minSi = Infinity;
@@ -120,7 +120,8 @@ export function summarizeSeries(points: readonly SeriesPoint[], bucketMs: number
     minSi = Math.min(minSi, p.min);
     maxSi = Math.max(maxSi, p.max);
     const status = classifyValue(p.mean, window);
-    if (status === "below" || status === "above") outMs += coverageMs(p.timeMs, sorted[i + 1]?.timeMs, bucketMs);
+    // The newest bucket is still filling: it counts only up to `untilMs` (now, or the range's end).
+    if (status === "below" || status === "above") outMs += Math.max(0, Math.min(coverageMs(p.timeMs, sorted[i + 1]?.timeMs, bucketMs), untilMs - p.timeMs));
   });
   return { minSi, maxSi, outMs, hasWindow: window !== undefined };
 }
