@@ -106,6 +106,34 @@ export function createAppRoutes(queryClient: QueryClient): RouteObject[] {
           lazy: () => import("./routes/rota/duty-rota").then(signedInPage),
         },
         {
+          path: paths.rounds.pattern,
+          lazy: () => import("./routes/rounds/rounds").then(signedInPage),
+        },
+        {
+          path: paths.round.pattern,
+          lazy: () => import("./routes/rounds/round").then(signedInPage),
+        },
+        {
+          path: paths.batches.pattern,
+          lazy: () => import("./routes/batches/batches").then(signedInPage),
+        },
+        {
+          path: paths.newBatch.pattern,
+          lazy: () => import("./routes/batches/new-batch").then(signedInPage),
+        },
+        {
+          path: paths.batch.pattern,
+          lazy: () => import("./routes/batches/batch").then(signedInPage),
+        },
+        {
+          path: paths.editBatch.pattern,
+          lazy: () => import("./routes/batches/edit-batch").then(signedInPage),
+        },
+        {
+          path: paths.reports.pattern,
+          lazy: () => import("./routes/reports/reports").then(signedInPage),
+        },
+        {
           path: paths.users.pattern,
           lazy: () => import("./routes/admin/users").then(signedInPage),
         },

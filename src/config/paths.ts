@@ -90,6 +90,45 @@ export const paths = {
     pattern: "/duty-rota",
     to: () => "/duty-rota",
   },
+  /** The morning walk-through: start one (a zone or every zone) or resume one in progress. */
+  rounds: {
+    pattern: "/rounds",
+    to: () => "/rounds",
+  },
+  /** A round: its bench cards while in progress, its summary once finished (the summary mail links here). */
+  round: {
+    pattern: "/rounds/:roundId",
+    to: (roundId: number) => `/rounds/${roundId}`,
+  },
+  /** Batches of cuttings; `status` open (default), closed or all; `zone` a zone id; `variety` a name. */
+  batches: {
+    pattern: "/batches",
+    to: ({ status, zoneId, variety }: { status?: "open" | "closed" | "all"; zoneId?: number; variety?: string } = {}) => {
+      const search = new URLSearchParams();
+      if (status && status !== "open") search.set("status", status);
+      if (zoneId !== undefined) search.set("zone", String(zoneId));
+      if (variety) search.set("variety", variety);
+      return search.size > 0 ? `/batches?${search}` : "/batches";
+    },
+  },
+  newBatch: {
+    pattern: "/batches/new",
+    /** `benchId`: the bench to preselect. */
+    to: (benchId?: number) => (benchId === undefined ? "/batches/new" : `/batches/new?bench=${benchId}`),
+  },
+  batch: {
+    pattern: "/batches/:batchId",
+    to: (batchId: number) => `/batches/${batchId}`,
+  },
+  editBatch: {
+    pattern: "/batches/:batchId/edit",
+    to: (batchId: number) => `/batches/${batchId}/edit`,
+  },
+  /** Strike rates per batch, variety and bench beside time in window; CSV exports. */
+  reports: {
+    pattern: "/reports",
+    to: () => "/reports",
+  },
 } as const;
 
 /**

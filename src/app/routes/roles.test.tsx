@@ -29,7 +29,7 @@ describe("role-aware navigation and pages", () => {
       renderApp("/", apiFor("viewer"));
       expect(await screen.findByRole("heading", { name: "Fig house" }, FIRST_PAINT)).toBeTruthy();
       const nav = screen.getByRole("navigation", { name: "Pages" });
-      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings"]);
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Walk-through", "Batches", "Reports", "Duty rota", "Settings"]);
       for (const name of ["Users", "Sensors", "Mailbox"]) expect(screen.queryByRole("link", { name })).toBeNull();
       // The only button is the viewer's own account menu.
       expect(screen.getAllByRole("button").map((b) => b.textContent)).toEqual([expect.stringContaining("Vi Viewer")]);
@@ -66,7 +66,7 @@ describe("role-aware navigation and pages", () => {
       renderApp("/sensors", apiFor("admin"));
       expect(await screen.findByRole("heading", { level: 1, name: "Sensors" }, FIRST_PAINT)).toBeTruthy();
       const nav = screen.getByRole("navigation", { name: "Pages" });
-      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings", "Users", "Sensors", "Mailbox"]);
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Walk-through", "Batches", "Reports", "Duty rota", "Settings", "Users", "Sensors", "Mailbox"]);
       expect(within(nav).getByRole("link", { name: "Sensors" }).getAttribute("aria-current")).toBe("page");
       expect(screen.getByRole("button", { name: /Register and make its secret/ })).toBeTruthy();
       expect(screen.getByRole("button", { name: "New secret for probe-1" })).toBeTruthy();

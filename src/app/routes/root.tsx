@@ -12,6 +12,7 @@ import { useOpenAlerts } from "../../features/alerts/api/get-alerts";
 import { getMailQueryOptions } from "../../features/mail/api/get-mail";
 import { UserMenu } from "../../features/auth/components/user-menu";
 import { LiveIndicator } from "../../features/live/components/live-indicator";
+import { WaitingToSend } from "../../features/offline/components/waiting-to-send";
 import { ALLOWED, AuthorizationProvider } from "../../lib/authorization";
 import { TemperatureUnitProvider } from "../../lib/temperature-unit";
 import type { TemperatureUnit } from "../../../shared/domain/units.js";
@@ -26,6 +27,9 @@ import { useSessionExpiry, useSignInRedirect } from "../session-guard";
 const NAV_ITEMS: readonly (NavItem & { roles?: readonly Role[]; demoOnly?: boolean })[] = [
   { to: paths.dashboard.to(), label: "Benches", end: true },
   { to: paths.alerts.to(), label: "Alerts" },
+  { to: paths.rounds.to(), label: "Walk-through" },
+  { to: paths.batches.to(), label: "Batches" },
+  { to: paths.reports.to(), label: "Reports" },
   { to: paths.dutyRota.to(), label: "Duty rota" },
   // Every role: growers and viewers read the windows and the change log; only managers and admins edit.
   { to: paths.settings.to(), label: "Settings" },
@@ -87,6 +91,8 @@ export function RootLayout() {
             <div className="fixed inset-x-0 top-0 z-30 h-1 animate-pulse bg-accent" role="progressbar" aria-label="Loading page" />
           )}
           <Outlet />
+          {/* Work entered offline and not yet sent: a pill in the corner, within thumb's reach. */}
+          <WaitingToSend />
         </AppShell>
       </TemperatureUnitProvider>
     </AuthorizationProvider>

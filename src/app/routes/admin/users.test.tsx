@@ -120,7 +120,7 @@ describe("users page", () => {
       expect(await screen.findByText("You are no longer an admin")).toBeTruthy();
       // Every role keeps Benches, Alerts, Duty rota and Settings; the admin pages' links are gone.
       const nav = screen.getByRole("navigation", { name: "Pages" });
-      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Duty rota", "Settings"]);
+      expect(within(nav).getAllByRole("link").map((l) => l.textContent)).toEqual(["Benches", "Alerts", "Walk-through", "Batches", "Reports", "Duty rota", "Settings"]);
       expect(screen.queryAllByRole("combobox")).toHaveLength(0);
       expect(screen.queryAllByRole("button", { name: /Disable|Send invitation/ })).toHaveLength(0);
     },

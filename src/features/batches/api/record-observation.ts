@@ -75,7 +75,8 @@ export function useRecordObservation() {
   return useMutation<RecordObservationResult, Error, RecordObservationVariables>({ mutationKey: RECORD_OBSERVATION_MUTATION_KEY });
 }
 
-export type PendingObservation = { variables: RecordObservationVariables; isPaused: boolean; submittedAtMs: number };
+/** `isSending`: on its way now (not paused, no failed try yet); otherwise it waits. */
+export type PendingObservation = { variables: RecordObservationVariables; isSending: boolean; submittedAtMs: number };
 
 /** Observations of a batch entered here and not yet answered by the server (offline, or on their way). */
 export function usePendingObservations(batchId: number): PendingObservation[] {
@@ -85,6 +86,10 @@ export function usePendingObservations(batchId: number): PendingObservation[] {
       status: "pending",
       predicate: (m) => (m.state.variables as RecordObservationVariables | undefined)?.batchId === batchId,
     },
-    select: (m) => ({ variables: m.state.variables as RecordObservationVariables, isPaused: m.state.isPaused, submittedAtMs: m.state.submittedAt }),
+    select: (m) => ({
+      variables: m.state.variables as RecordObservationVariables,
+      isSending: !m.state.isPaused && m.state.failureCount === 0,
+      submittedAtMs: m.state.submittedAt,
+    }),
   });
 }

@@ -48,7 +48,7 @@ export function BatchOnBench({ batch, benchName, roundId, timeZone, batchHref, p
       <div className="flex flex-wrap items-start justify-between gap-2">
         <div>
           <h4 id={headingId} className="text-xl font-bold">
-            <Link to={batchHref} className="underline-offset-4 hover:underline">
+            <Link to={batchHref} className="inline-flex min-h-touch items-center underline underline-offset-4">
               {batch.variety}
             </Link>
           </h4>
@@ -74,7 +74,7 @@ export function BatchOnBench({ batch, benchName, roundId, timeZone, batchHref, p
           ))}
           {pending.map((p) => (
             <li key={p.variables.input.clientId} data-waiting="true" className="rounded-lg border-2 border-dashed border-high bg-high-soft p-3 text-ink">
-              <p className="text-base font-bold">{isOnline && !p.isPaused ? "Sending…" : "Waiting to send"}</p>
+              <p className="text-base font-bold">{isOnline && p.isSending ? "Sending…" : "Waiting to send"}</p>
               <p className="text-lg">{p.variables.detail}</p>
             </li>
           ))}

@@ -109,7 +109,7 @@ export function BenchRoundCard({ card, place, total, unit, timeZone, check, batc
       aria-labelledby={headingId}
       data-bench-id={card.benchId}
       data-checked={check.kind}
-      className={`scroll-mt-32 flex flex-col gap-4 rounded-2xl border-2 bg-surface p-4 shadow-sm ${check.kind === "unchecked" ? "border-line" : "border-ok"}`}
+      className={`scroll-mt-60 flex flex-col gap-4 rounded-2xl border-2 bg-surface p-4 shadow-sm ${check.kind === "unchecked" ? "border-line" : "border-ok"}`}
     >
       <header className="flex flex-wrap items-start justify-between gap-2">
         <div>
