@@ -24,5 +24,8 @@ export default defineConfig({
     outDir: "dist",
     emptyOutDir: true,
     sourcemap: true,
+    // dist/.vite/manifest.json: which chunks and styles each entry and lazy route loads
+    // (npm run bench reads it for the first-load and lazy-chunk sizes).
+    manifest: true,
   },
 });

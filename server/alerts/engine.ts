@@ -67,6 +67,8 @@ export class AlertEngine {
   private queue: Promise<unknown> = Promise.resolve();
   private startedAtMs = 0;
   private noticesWritten = false;
+  private waitingRows: ReadingRow[] | null = null;
+  private waitingDone: Promise<void> | null = null;
   /** Told after a commit that wrote notices, so the notifier can run when their group is due. */
   onNoticesWritten: () => void = () => {};
 
@@ -108,7 +110,19 @@ export class AlertEngine {
 
   /** Readings just committed (called after every write batch). */
   onReadings(rows: readonly ReadingRow[]): Promise<void> {
-    return this.enqueue(() => this.evaluateReadings(rows));
+    // Batches committed while an evaluation waits join it: one pending evaluation at most, so a
+    // fast fleet cannot pile up a queue of jobs (and their rows) faster than they are evaluated.
+    if (this.waitingRows) {
+      this.waitingRows.push(...rows);
+      return this.waitingDone!;
+    }
+    this.waitingRows = [...rows];
+    this.waitingDone = this.enqueue(async () => {
+      const batch = this.waitingRows ?? [];
+      this.waitingRows = null;
+      await this.evaluateReadings(batch);
+    });
+    return this.waitingDone;
   }
 
   /** The periodic pass: hold-off delays running out, changed windows, silence, escalation, reminders. */

@@ -3,7 +3,7 @@ import { AppMetaEntity } from "./app-meta.entity.js";
 import { BenchEntity } from "./bench.entity.js";
 import { CaughtMailEntity } from "./caught-mail.entity.js";
 import { OutboxEntity } from "./outbox.entity.js";
-import { LatestReadingEntity, ReadingEntity } from "./reading.entity.js";
+import { LatestReadingEntity, ReadingEntity, ReadingRollupEntity, ReadingRollupStaleEntity } from "./reading.entity.js";
 import { SensorEntity } from "./sensor.entity.js";
 import { SiteEntity } from "./site.entity.js";
 import { SignInFailureEntity, UserEntity } from "./user.entity.js";
@@ -43,4 +43,6 @@ export const ENTITIES = [
   ObservationPhotoEntity,
   WalkRoundEntity,
   WalkRoundBenchEntity,
+  ReadingRollupEntity,
+  ReadingRollupStaleEntity,
 ];

@@ -49,3 +49,57 @@ export const LatestReadingEntity = new EntitySchema<LatestReading>({
   },
   indices: [{ name: "idx_latest_reading_bench", columns: ["benchId"] }],
 });
+
+/**
+ * min/sum/max/count of a bench's readings of one quantity over one aligned interval (1 min,
+ * 15 min or 1 h, epoch-aligned), kept up to date at ingest in the same transaction as the readings,
+ * so a long chart reads a bounded number of rows. The mean is sum / count.
+ */
+export interface ReadingRollup {
+  benchId: number;
+  quantity: Quantity;
+  resolutionMs: number;
+  startMs: number;
+  min: number;
+  max: number;
+  sum: number;
+  count: number;
+}
+
+export const ReadingRollupEntity = new EntitySchema<ReadingRollup>({
+  name: "ReadingRollup",
+  tableName: "reading_rollup",
+  withoutRowid: true,
+  columns: {
+    benchId: { type: "integer", name: "bench_id", primary: true },
+    quantity: { type: "varchar", primary: true, length: 32 },
+    resolutionMs: { type: "integer", name: "resolution_ms", primary: true },
+    startMs: { type: "integer", name: "start_ms", primary: true },
+    min: { type: "real" },
+    max: { type: "real" },
+    sum: { type: "real" },
+    count: { type: "integer" },
+  },
+});
+
+/**
+ * Hours of a bench's rollups that no longer match its readings because readings were re-filed to
+ * another bench (a back-dated sensor move). A trigger on reading.bench_id fills it; the readings
+ * repository rebuilds those hours from the readings before it serves a series.
+ */
+export interface ReadingRollupStale {
+  benchId: number;
+  quantity: Quantity;
+  hourMs: number;
+}
+
+export const ReadingRollupStaleEntity = new EntitySchema<ReadingRollupStale>({
+  name: "ReadingRollupStale",
+  tableName: "reading_rollup_stale",
+  withoutRowid: true,
+  columns: {
+    benchId: { type: "integer", name: "bench_id", primary: true },
+    quantity: { type: "varchar", primary: true, length: 32 },
+    hourMs: { type: "integer", name: "hour_ms", primary: true },
+  },
+});

@@ -19,6 +19,21 @@ export interface LatestRow {
   value: number;
 }
 
+/** Rollup resolutions kept at ingest (epoch-aligned intervals), finest first. */
+export const ROLLUP_RESOLUTIONS_MS = [60_000, 900_000, 3_600_000] as const;
+const MINUTE_MS = 60_000;
+const HOUR_MS = 3_600_000;
+
+interface RollupCell {
+  benchId: number;
+  quantity: Quantity;
+  startMs: number;
+  min: number;
+  max: number;
+  sum: number;
+  count: number;
+}
+
 /**
  * SQL for readings through prepared statements on the raw better-sqlite3 handle: the ingest hot
  * path and chart reads are too hot for the query builder (STACK.md, measured).
@@ -29,6 +44,9 @@ export class ReadingsRepository {
   private readonly selectSeries: BetterSqlite3.Statement;
   private readonly selectLatestForBenches: BetterSqlite3.Statement;
   private readonly insertBatch: (rows: ReadingRow[]) => ReadingRow[];
+  private readonly upsertRollup: BetterSqlite3.Statement;
+  private readonly selectStale: BetterSqlite3.Statement;
+  private readonly rebuildStaleHour: (stale: { benchId: number; quantity: Quantity; hourMs: number }) => void;
 
   constructor(private readonly db: BetterSqlite3.Database) {
     this.insertReading = db.prepare(
@@ -44,14 +62,51 @@ export class ReadingsRepository {
          SET time_ms = excluded.time_ms, value = excluded.value, bench_id = excluded.bench_id
          WHERE excluded.time_ms > latest_reading.time_ms`,
     );
-    // Bucket keys need an explicit integer cast: JS numbers bind as REAL (STACK.md).
-    this.selectSeries = db.prepare(
-      `SELECT CAST((time_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket,
-              MIN(value) AS min, AVG(value) AS mean, MAX(value) AS max, COUNT(*) AS count
-         FROM reading
-        WHERE bench_id = @benchId AND quantity = @quantity AND time_ms >= @fromMs AND time_ms < @toMs
-        GROUP BY bucket ORDER BY bucket`,
+    // Adding to a rollup is idempotent with the reading insert: only rows that were new are added.
+    this.upsertRollup = db.prepare(
+      `INSERT INTO reading_rollup (bench_id, quantity, resolution_ms, start_ms, min, max, sum, count)
+       VALUES (@benchId, @quantity, @resolutionMs, @startMs, @min, @max, @sum, @count)
+       ON CONFLICT (bench_id, quantity, resolution_ms, start_ms) DO UPDATE
+         SET min = MIN(min, excluded.min), max = MAX(max, excluded.max), sum = sum + excluded.sum, count = count + excluded.count`,
     );
+    // A series from three tiers: raw readings for the partial minutes at either end, 1-minute
+    // rollups up to the coarse resolution's boundaries, coarse rollups in between. Every reading in
+    // [from, to) is counted once; a rollup goes to the bucket its start falls in. Bucket keys need
+    // an explicit integer cast: JS numbers bind as REAL (STACK.md).
+    const rawPart = (lo: string, hi: string) =>
+      `SELECT CAST((time_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, value AS mn, value AS mx, value AS sm, 1 AS n
+         FROM reading WHERE bench_id = @benchId AND quantity = @quantity AND time_ms >= @${lo} AND time_ms < @${hi}`;
+    const rollupPart = (resolution: string, lo: string, hi: string) =>
+      `SELECT CAST((start_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, min AS mn, max AS mx, sum AS sm, count AS n
+         FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND resolution_ms = ${resolution} AND start_ms >= @${lo} AND start_ms < @${hi}`;
+    this.selectSeries = db.prepare(
+      `SELECT bucket, MIN(mn) AS min, SUM(sm) / SUM(n) AS mean, MAX(mx) AS max, SUM(n) AS count FROM (
+         ${rawPart("fromMs", "minuteFromMs")}
+         UNION ALL ${rawPart("minuteToMs", "toMs")}
+         UNION ALL ${rollupPart(String(MINUTE_MS), "minuteFromMs", "coarseFromMs")}
+         UNION ALL ${rollupPart(String(MINUTE_MS), "coarseToMs", "minuteToMs")}
+         UNION ALL ${rollupPart("@coarseMs", "coarseFromMs", "coarseToMs")}
+       ) GROUP BY bucket ORDER BY bucket`,
+    );
+    this.selectStale = db.prepare(`SELECT bench_id AS benchId, quantity, hour_ms AS hourMs FROM reading_rollup_stale LIMIT 1000`);
+    const deleteHour = db.prepare(`DELETE FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND start_ms >= @hourMs AND start_ms < @hourMs + ${HOUR_MS}`);
+    const minutesOfHour = db.prepare(
+      `INSERT INTO reading_rollup SELECT bench_id, quantity, ${MINUTE_MS}, (time_ms / ${MINUTE_MS}) * ${MINUTE_MS}, MIN(value), MAX(value), SUM(value), COUNT(*)
+         FROM reading WHERE bench_id = @benchId AND quantity = @quantity AND time_ms >= @hourMs AND time_ms < @hourMs + ${HOUR_MS}
+        GROUP BY time_ms / ${MINUTE_MS}`,
+    );
+    const coarseOfHour = db.prepare(
+      `INSERT INTO reading_rollup SELECT bench_id, quantity, @resolutionMs, (start_ms / @resolutionMs) * @resolutionMs, MIN(min), MAX(max), SUM(sum), SUM(count)
+         FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND resolution_ms = ${MINUTE_MS} AND start_ms >= @hourMs AND start_ms < @hourMs + ${HOUR_MS}
+        GROUP BY start_ms / @resolutionMs`,
+    );
+    const deleteStale = db.prepare(`DELETE FROM reading_rollup_stale WHERE bench_id = @benchId AND quantity = @quantity AND hour_ms = @hourMs`);
+    this.rebuildStaleHour = db.transaction((stale: { benchId: number; quantity: Quantity; hourMs: number }) => {
+      deleteHour.run(stale);
+      minutesOfHour.run(stale);
+      for (const resolutionMs of ROLLUP_RESOLUTIONS_MS.slice(1)) coarseOfHour.run({ ...stale, resolutionMs });
+      deleteStale.run(stale);
+    });
     this.selectLatestForBenches = db.prepare(
       `SELECT sensor_id AS sensorId, bench_id AS benchId, quantity, time_ms AS timeMs, value
          FROM latest_reading WHERE bench_id IS NOT NULL`,
@@ -67,6 +122,7 @@ export class ReadingsRepository {
         if (!seen || row.timeMs > seen.timeMs) newest.set(key, row);
       }
       for (const row of newest.values()) this.upsertLatest.run(row);
+      this.addToRollups(stored);
       return stored;
     });
   }
@@ -76,9 +132,62 @@ export class ReadingsRepository {
     return this.insertBatch(rows);
   }
 
-  /** min/mean/max per bucket for one bench and quantity over [fromMs, toMs). */
+  /** Add newly stored rows to the rollups of their bench (inside the insert's transaction). */
+  private addToRollups(stored: ReadingRow[]): void {
+    const cells = new Map<string, RollupCell>();
+    for (const row of stored) {
+      if (row.benchId === null) continue;
+      const startMs = Math.floor(row.timeMs / MINUTE_MS) * MINUTE_MS;
+      const key = `${row.benchId}\u0000${row.quantity}\u0000${startMs}`;
+      const cell = cells.get(key);
+      if (cell) {
+        if (row.value < cell.min) cell.min = row.value;
+        if (row.value > cell.max) cell.max = row.value;
+        cell.sum += row.value;
+        cell.count++;
+      } else {
+        cells.set(key, { benchId: row.benchId, quantity: row.quantity, startMs, min: row.value, max: row.value, sum: row.value, count: 1 });
+      }
+    }
+    for (const resolutionMs of ROLLUP_RESOLUTIONS_MS) {
+      const merged = new Map<string, RollupCell>();
+      for (const cell of cells.values()) {
+        const startMs = Math.floor(cell.startMs / resolutionMs) * resolutionMs;
+        const key = `${cell.benchId}\u0000${cell.quantity}\u0000${startMs}`;
+        const into = merged.get(key);
+        if (into) {
+          into.min = Math.min(into.min, cell.min);
+          into.max = Math.max(into.max, cell.max);
+          into.sum += cell.sum;
+          into.count += cell.count;
+        } else merged.set(key, { ...cell, startMs });
+      }
+      for (const cell of merged.values()) this.upsertRollup.run({ ...cell, resolutionMs });
+    }
+  }
+
+  /** Rebuild rollup hours a back-dated sensor move made stale (normally there are none). */
+  private refreshStaleRollups(): void {
+    for (let round = 0; round < 100; round++) {
+      const stale = this.selectStale.all() as { benchId: number; quantity: Quantity; hourMs: number }[];
+      if (stale.length === 0) return;
+      for (const s of stale) this.rebuildStaleHour(s);
+    }
+  }
+
+  /**
+   * min/mean/max per bucket for one bench and quantity over [fromMs, toMs), buckets of bucketMs
+   * from fromMs. Reads rollups of coarseMs (1 min, 15 min or 1 h; a divisor of bucketMs, at most
+   * half of it) for whole intervals and raw readings only for the partial minutes at the ends.
+   */
   series(benchId: number, quantity: Quantity, fromMs: number, toMs: number, bucketMs: number): SeriesPoint[] {
-    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs }) as {
+    this.refreshStaleRollups();
+    const coarseMs = [...ROLLUP_RESOLUTIONS_MS].reverse().find((r) => r * 2 <= bucketMs && bucketMs % r === 0) ?? MINUTE_MS;
+    const minuteFromMs = Math.min(toMs, Math.ceil(fromMs / MINUTE_MS) * MINUTE_MS);
+    const minuteToMs = Math.max(minuteFromMs, Math.floor(toMs / MINUTE_MS) * MINUTE_MS);
+    const coarseFromMs = Math.min(minuteToMs, Math.max(minuteFromMs, Math.ceil(minuteFromMs / coarseMs) * coarseMs));
+    const coarseToMs = Math.max(coarseFromMs, Math.floor(minuteToMs / coarseMs) * coarseMs);
+    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs, coarseMs, minuteFromMs, minuteToMs, coarseFromMs, coarseToMs }) as {
       bucket: number;
       min: number;
       mean: number;

@@ -12,6 +12,17 @@ const DAY_MS = 24 * 3600 * 1000;
 const MAX_RANGE_MS = 400 * DAY_MS;
 /** Buckets are whole minutes at least, so a short range does not split into empty slivers. */
 const MIN_BUCKET_MS = 60_000;
+/**
+ * Bucket sizes a series is cut into (minutes): the smallest that keeps it within MAX_SERIES_POINTS.
+ * Each is a multiple of a rollup resolution (1 min, 15 min, 1 h), so long ranges read rollups.
+ */
+const BUCKET_MINUTES = [1, 2, 3, 5, 10, 15, 30, 60, 120, 180, 360, 720, 1440];
+
+export function bucketSizeMs(rangeMs: number): number {
+  const wantedMs = Math.max(MIN_BUCKET_MS, Math.ceil(rangeMs / MAX_SERIES_POINTS / MIN_BUCKET_MS) * MIN_BUCKET_MS);
+  const nice = BUCKET_MINUTES.map((m) => m * MIN_BUCKET_MS).find((b) => b >= wantedMs);
+  return nice ?? Math.ceil(wantedMs / DAY_MS) * DAY_MS;
+}
 
 export class ReadingsService {
   constructor(
@@ -29,7 +40,7 @@ export class ReadingsService {
     const toMs = query.to?.getTime() ?? this.now();
     const fromMs = query.from?.getTime() ?? toMs - DAY_MS;
     if (toMs - fromMs > MAX_RANGE_MS) throw badRequest("range-too-long", "Ask for at most 400 days at a time");
-    const bucketMs = Math.max(MIN_BUCKET_MS, Math.ceil((toMs - fromMs) / MAX_SERIES_POINTS / MIN_BUCKET_MS) * MIN_BUCKET_MS);
+    const bucketMs = bucketSizeMs(toMs - fromMs);
 
     const quantities = query.quantity ? [query.quantity] : QUANTITIES;
     return {
