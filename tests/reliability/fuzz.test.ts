@@ -76,10 +76,15 @@ describe("fuzzing the ingest and the API", () => {
       // Awaited, so every pack is really processed; a refused (oversized) one closes the connection,
       // and then mqtt.js neither acknowledges nor fails the publish: stop waiting at the close.
       const client = bad;
+      let onClose = () => {};
       await Promise.race([
         client.publishAsync(badTopic, payload, { qos: 1 }).catch(() => undefined),
-        new Promise<void>((r) => client.once("close", () => r())),
+        new Promise<void>((r) => {
+          onClose = () => r();
+          client.once("close", onClose);
+        }),
       ]);
+      client.off("close", onClose);
       if (i % 10 === 0) {
         await good.publishAsync(goodTopic, JSON.stringify([{ n: "medium.moisture", u: "/", v: 0.4, t: (base + goodSent * 1000) / 1000 }]), { qos: 1 });
         goodSent++;
