@@ -1,4 +1,4 @@
-import { In, type DataSource, type EntityManager } from "typeorm";
+import type { DataSource, EntityManager } from "typeorm";
 import { dewPointC } from "../../shared/domain/psychrometrics.js";
 import {
   acknowledgeAlert,
@@ -375,13 +375,5 @@ export class AlertEngine {
     if (t.alertId !== null && value !== null && t.kind !== "sensor-silent") {
       await alerts.update({ id: t.alertId }, { lastValue: value, worstValue: t.state.worstValue, updatedAtMs: nowMs });
     }
-  }
-
-  /** Alerts currently open or watching, for the dashboard cards. */
-  async openAlertsByBench(): Promise<Map<number, AlertRecord[]>> {
-    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { phase: In(["watching", "raised", "acknowledged"]) }, order: { sinceMs: "ASC" } });
-    const byBench = new Map<number, AlertRecord[]>();
-    for (const r of rows) byBench.set(r.benchId, [...(byBench.get(r.benchId) ?? []), r]);
-    return byBench;
   }
 }

@@ -48,7 +48,7 @@ export class ReadingsRepository {
   private readonly selectStale: BetterSqlite3.Statement;
   private readonly rebuildStaleHour: (stale: { benchId: number; quantity: Quantity; hourMs: number }) => void;
 
-  constructor(private readonly db: BetterSqlite3.Database) {
+  constructor(db: BetterSqlite3.Database) {
     this.insertReading = db.prepare(
       `INSERT INTO reading (sensor_id, quantity, time_ms, value, bench_id)
        VALUES (@sensorId, @quantity, @timeMs, @value, @benchId)
@@ -202,7 +202,4 @@ export class ReadingsRepository {
     return this.selectLatestForBenches.all() as LatestRow[];
   }
 
-  countReadings(): number {
-    return (this.db.prepare("SELECT COUNT(*) AS n FROM reading").get() as { n: number }).n;
-  }
 }
