@@ -85,7 +85,9 @@ describe("photo uploads", () => {
 
   it("when the file name climbs out of the folder, then the photo is stored under a generated name inside data/ only", async () => {
     const evil = `evil-${randomUUID()}.jpg`;
-    const res = await upload(grower).attach("photos", await cameraJpeg("#884422"), { filename: `../../../../../../tmp/${evil}`, contentType: "image/jpeg" }).expect(201);
+    // form-data sends only the base name of a `filename`; a `filepath` goes out as given, so the climb reaches the server.
+    const climbing = { filepath: `../../../../../../tmp/${evil}`, contentType: "image/jpeg" };
+    const res = await upload(grower).attach("photos", await cameraJpeg("#884422"), climbing).expect(201);
     const { photos } = uploadPhotosResponseSchema.parse(res.body);
     expect(photos).toHaveLength(1);
     // Nothing at the place the name pointed to, nor beside the database, nor anywhere named like it.
