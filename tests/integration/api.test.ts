@@ -5,6 +5,7 @@ import { problemSchema } from "../../shared/api-error.js";
 import { benchReadingsResponseSchema } from "../../shared/schemas/readings.js";
 import { readingsEventSchema } from "../../shared/schemas/stream.js";
 import { zonesResponseSchema } from "../../shared/schemas/zones.js";
+import { rawDatabase } from "../../server/db/data-source.js";
 import { connectSensor, signIn, startTestServer, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
@@ -96,6 +97,17 @@ describe("HTTP API", () => {
       await other.mqtt.close();
       const res = await request(other.baseUrl).get("/healthz").expect(503);
       expect(res.body).toEqual({ status: "unavailable", database: "ok", broker: "not listening" });
+    } finally {
+      await other.cleanup();
+    }
+  });
+
+  it("/healthz fails when the database is down", async () => {
+    const other = await startTestServer();
+    try {
+      rawDatabase(other.dataSource).close();
+      const res = await request(other.baseUrl).get("/healthz").expect(503);
+      expect(res.body).toEqual({ status: "unavailable", database: "not answering", broker: "ok" });
     } finally {
       await other.cleanup();
     }
