@@ -46,7 +46,7 @@ export class ReadingsRepository {
   private readonly insertBatch: (rows: ReadingRow[]) => ReadingRow[];
   private readonly upsertRollup: BetterSqlite3.Statement;
   private readonly selectStale: BetterSqlite3.Statement;
-  private readonly rebuildStaleHour: (stale: { benchId: number; quantity: Quantity; hourMs: number }) => void;
+  private readonly rebuildStaleHours: (hours: { benchId: number; quantity: Quantity; hourMs: number }[]) => void;
 
   constructor(db: BetterSqlite3.Database) {
     this.insertReading = db.prepare(
@@ -88,8 +88,13 @@ export class ReadingsRepository {
          UNION ALL ${rollupPart("@coarseMs", "coarseFromMs", "coarseToMs")}
        ) GROUP BY bucket ORDER BY bucket`,
     );
-    this.selectStale = db.prepare(`SELECT bench_id AS benchId, quantity, hour_ms AS hourMs FROM reading_rollup_stale LIMIT 1000`);
-    const deleteHour = db.prepare(`DELETE FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND start_ms >= @hourMs AND start_ms < @hourMs + ${HOUR_MS}`);
+    this.selectStale = db.prepare(`SELECT bench_id AS benchId, quantity, hour_ms AS hourMs FROM reading_rollup_stale LIMIT 250`);
+    // Naming every resolution lets each delete walk the primary key (bench, quantity, resolution,
+    // start) to the hour; without it SQLite scans the series' whole history once per stale hour.
+    const deleteHour = db.prepare(
+      `DELETE FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND resolution_ms IN (${ROLLUP_RESOLUTIONS_MS.join(", ")})
+         AND start_ms >= @hourMs AND start_ms < @hourMs + ${HOUR_MS}`,
+    );
     const minutesOfHour = db.prepare(
       `INSERT INTO reading_rollup SELECT bench_id, quantity, ${MINUTE_MS}, (time_ms / ${MINUTE_MS}) * ${MINUTE_MS}, MIN(value), MAX(value), SUM(value), COUNT(*)
          FROM reading WHERE bench_id = @benchId AND quantity = @quantity AND time_ms >= @hourMs AND time_ms < @hourMs + ${HOUR_MS}
@@ -101,11 +106,14 @@ export class ReadingsRepository {
         GROUP BY start_ms / @resolutionMs`,
     );
     const deleteStale = db.prepare(`DELETE FROM reading_rollup_stale WHERE bench_id = @benchId AND quantity = @quantity AND hour_ms = @hourMs`);
-    this.rebuildStaleHour = db.transaction((stale: { benchId: number; quantity: Quantity; hourMs: number }) => {
-      deleteHour.run(stale);
-      minutesOfHour.run(stale);
-      for (const resolutionMs of ROLLUP_RESOLUTIONS_MS.slice(1)) coarseOfHour.run({ ...stale, resolutionMs });
-      deleteStale.run(stale);
+    // Up to 250 stale hours per transaction (a write lock of tens of ms): one commit each cost more than the rebuild itself.
+    this.rebuildStaleHours = db.transaction((hours: { benchId: number; quantity: Quantity; hourMs: number }[]) => {
+      for (const stale of hours) {
+        deleteHour.run(stale);
+        minutesOfHour.run(stale);
+        for (const resolutionMs of ROLLUP_RESOLUTIONS_MS.slice(1)) coarseOfHour.run({ ...stale, resolutionMs });
+        deleteStale.run(stale);
+      }
     });
     this.selectLatestForBenches = db.prepare(
       `SELECT sensor_id AS sensorId, bench_id AS benchId, quantity, time_ms AS timeMs, value
@@ -171,7 +179,7 @@ export class ReadingsRepository {
     for (let round = 0; round < 100; round++) {
       const stale = this.selectStale.all() as { benchId: number; quantity: Quantity; hourMs: number }[];
       if (stale.length === 0) return;
-      for (const s of stale) this.rebuildStaleHour(s);
+      this.rebuildStaleHours(stale);
     }
   }
 
