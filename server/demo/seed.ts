@@ -1,6 +1,6 @@
 import { writeFileSync } from "node:fs";
 import type { DataSource } from "typeorm";
-import { fahrenheitToCelsius } from "../../shared/domain/units.js";
+import { BUILT_IN_PRESETS, DEFAULT_PRESET_ID } from "../../shared/domain/window-guidance.js";
 import type { WindowedQuantity } from "../../shared/schemas/quantities.js";
 import type { SensorKind } from "../../shared/schemas/quantities.js";
 import { AppMetaEntity } from "../db/entities/app-meta.entity.js";
@@ -22,17 +22,21 @@ export interface DemoSensorCredential {
 }
 
 /**
- * The rooting window every demo zone starts with, in stored units. All values are common practice
- * for subtropical fruit-tree cuttings under bottom heat (REFERENCES.md §6–7): air 70–80 °F
- * (21.1–26.7 °C), medium 21–25 °C, moisture 0.35–0.55 m³/m³. RH limits, delays and hysteresis
- * bands are our own starting points (common practice), to be tuned by the manager.
+ * The rooting window every demo zone starts with, in stored units: the built-in "Warm rooting"
+ * preset (shared/domain/window-guidance.ts, where each value's source is noted), so the demo
+ * starts from the same values a manager would pick and raises no guidance warning. The
+ * simulator's normal night stays inside it (sensors-sim/model/params.ts).
  */
-export const DEMO_WINDOW: Record<WindowedQuantity, { min: number; max: number; delayS: number; hysteresis: number }> = {
-  "air.temperature": { min: fahrenheitToCelsius(70), max: fahrenheitToCelsius(80), delayS: 600, hysteresis: 0.5 },
-  "air.humidity": { min: 65, max: 95, delayS: 1800, hysteresis: 3 },
-  "medium.temperature": { min: 21, max: 25, delayS: 900, hysteresis: 0.5 },
-  "medium.moisture": { min: 0.35, max: 0.55, delayS: 3600, hysteresis: 0.02 },
-};
+export const DEMO_WINDOW: Record<WindowedQuantity, { min: number; max: number; delayS: number; hysteresis: number }> = demoWindow();
+
+function demoWindow() {
+  const preset = BUILT_IN_PRESETS.find((p) => p.id === DEFAULT_PRESET_ID);
+  if (!preset) throw new Error(`built-in preset ${DEFAULT_PRESET_ID} is missing`);
+  return Object.fromEntries(preset.windows.map(({ quantity, min, max, delayS, hysteresis }) => [quantity, { min, max, delayS, hysteresis }])) as Record<
+    WindowedQuantity,
+    { min: number; max: number; delayS: number; hysteresis: number }
+  >;
+}
 
 /** The invented nursery: one site, three houses, twelve benches. */
 const DEMO_NURSERY = {

@@ -68,8 +68,8 @@ describe("zone windows", () => {
     expect(body.windows.map((w) => w.quantity)).toEqual(["air.temperature", "air.humidity", "medium.temperature", "medium.moisture"]);
     expect(body.windows[0]).toMatchObject({ min: DEMO_WINDOW["air.temperature"].min, max: DEMO_WINDOW["air.temperature"].max });
     expect(body.dewPointMarginC).toBe(2);
-    // The demo's 95 % RH maximum is within the 2 °C margin at 70 °F air: warned, not refused.
-    expect(body.warnings.map((w) => w.code)).toContain("humidity-max-meets-condensation");
+    // The demo starts from the "Warm rooting" preset, which leaves every guidance alone.
+    expect(body.warnings).toEqual([]);
     expect(body.benchOverrides).toEqual([]);
   });
 
@@ -274,6 +274,52 @@ describe("presets", () => {
     );
     expect(taken).toMatchObject({ code: "preset-name-taken", errors: [{ path: "name", message: "This name is taken" }] });
     expect(problem(await api("post", `/api/zones/${zoneIds()[0]}/windows/preset`, "manager").send({ presetId: "no-such" }).expect(404)).code).toBe("preset-not-found");
+  });
+
+  it("a preset create or update with dryRun answers the guidance warnings and saves nothing, not even an audit entry", async () => {
+    const body = {
+      name: "Cool stick, trial",
+      description: "",
+      windows: [{ quantity: "air.temperature", min: fahrenheitToCelsius(64), max: 26, delayS: 600, hysteresis: 0.5 }],
+      dewPointMarginC: 2,
+    };
+    const presetCount = async () => windowPresetsResponseSchema.parse((await api("get", "/api/window-presets", "viewer").expect(200)).body).presets.length;
+    const auditCount = async () => auditResponseSchema.parse((await api("get", "/api/audit?entityType=window-preset", "viewer").expect(200)).body).entries.length;
+    const [presetsBefore, auditBefore] = [await presetCount(), await auditCount()];
+
+    const dry = windowPresetResponseSchema.parse((await api("post", "/api/window-presets?dryRun=true", "manager").send(body).expect(200)).body);
+    expect(dry).toMatchObject({ dryRun: true, changed: true, preset: { id: null, name: "Cool stick, trial", builtIn: false } });
+    expect(dry.warnings.map((w) => w.code)).toEqual(["air-min-below-rooting"]);
+    expect(dry.warnings[0]!.source.basis).toBe("common-practice");
+    expect([await presetCount(), await auditCount()]).toEqual([presetsBefore, auditBefore]);
+
+    // The checks of a save run on a dry run too: the schema (min above max) and a free name.
+    const invalid = problem(
+      await api("post", "/api/window-presets?dryRun=true", "manager")
+        .send({ ...body, windows: [{ ...body.windows[0], min: 30, max: 26 }] })
+        .expect(400),
+    );
+    expect(invalid.errors).toContainEqual({ path: "windows.0.min", message: "The minimum must be below the maximum" });
+    expect(problem(await api("post", "/api/window-presets?dryRun=1", "manager").send({ ...body, name: "Warm rooting" }).expect(409)).code).toBe("preset-name-taken");
+    expect(problem(await api("post", "/api/window-presets?dryRun=maybe", "manager").send(body).expect(400)).errors?.[0]?.path).toBe("dryRun");
+    expect(await presetCount()).toBe(presetsBefore);
+
+    const created = windowPresetResponseSchema.parse((await api("post", "/api/window-presets", "manager").send(body).expect(201)).body);
+    expect(created).toMatchObject({ dryRun: false, changed: true });
+    const id = created.preset.id!;
+    // An update's dry run: the would-be preset under its own id, warnings of the new values, the stored one untouched.
+    const fixed = [{ ...body.windows[0]!, min: fahrenheitToCelsius(71) }];
+    const dryUpdate = windowPresetResponseSchema.parse((await api("patch", `/api/window-presets/${id}?dryRun=true`, "manager").send({ windows: fixed }).expect(200)).body);
+    expect(dryUpdate).toMatchObject({ dryRun: true, changed: true, preset: { id, name: "Cool stick, trial" }, warnings: [] });
+    const stored = windowPresetsResponseSchema.parse((await api("get", "/api/window-presets", "viewer").expect(200)).body).presets.find((p) => p.id === id)!;
+    expect(stored.windows[0]!.min).toBeCloseTo(fahrenheitToCelsius(64), 10);
+    // The same values as stored: nothing would change.
+    expect(windowPresetResponseSchema.parse((await api("patch", `/api/window-presets/${id}?dryRun=true`, "manager").send({ windows: body.windows }).expect(200)).body).changed).toBe(false);
+    expect(problem(await api("patch", "/api/window-presets/warm-rooting?dryRun=true", "manager").send({ name: "Mine now" }).expect(409)).code).toBe("preset-built-in");
+    // Viewers may not even ask.
+    expect(problem(await api("post", "/api/window-presets?dryRun=true", "viewer").send(body).expect(403)).code).toBe("forbidden");
+    expect(await auditCount()).toBe(auditBefore + 1); // the one real creation
+    await api("delete", `/api/window-presets/${id}`, "manager").expect(204);
   });
 
   it("applying a preset with clearBenchOverrides removes the zone's bench overrides, each audited", async () => {
