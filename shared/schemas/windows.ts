@@ -107,7 +107,7 @@ export const benchWindowsInputSchema = z.object({
 });
 export type BenchWindowsInput = z.infer<typeof benchWindowsInputSchema>;
 
-/** Query of the window PUTs and preset applications: `?dryRun=true` validates and returns warnings, saves nothing. */
+/** Query of the window PUTs, preset applications, creations and updates: `?dryRun=true` validates and returns warnings, saves nothing. */
 export const dryRunQuerySchema = z.object({
   dryRun: z
     .enum(["true", "false", "1", "0"])
@@ -266,8 +266,18 @@ export const updateWindowPresetInputSchema = z
   .refine((v) => Object.values(v).some((x) => x !== undefined), { message: "Nothing to change" });
 export type UpdateWindowPresetInput = z.infer<typeof updateWindowPresetInputSchema>;
 
-/** POST /api/window-presets/:id response, PATCH response */
-export const windowPresetResponseSchema = z.object({ preset: windowPresetSchema, warnings: z.array(windowWarningSchema) });
+/**
+ * POST /api/window-presets and PATCH /api/window-presets/:id: what was (or, with `?dryRun=true`,
+ * would be) saved, and its guidance warnings. A dry run checks everything a save checks (the
+ * schema, a free name, a custom preset) and saves nothing; a preset not created yet has id null.
+ */
+export const windowPresetResponseSchema = z.object({
+  preset: windowPresetSchema.extend({ id: z.string().nullable() }),
+  warnings: z.array(windowWarningSchema),
+  dryRun: z.boolean(),
+  /** False when an update equals what was stored (nothing saved, nothing audited). */
+  changed: z.boolean(),
+});
 export type WindowPresetResponse = z.infer<typeof windowPresetResponseSchema>;
 
 /**

@@ -338,10 +338,24 @@ export class WindowSettingsService {
     }
   }
 
-  async createPreset(input: WindowPresetInput, actor: Principal): Promise<WindowPresetResponse> {
+  async createPreset(input: WindowPresetInput, actor: Principal, options: { dryRun: boolean }): Promise<WindowPresetResponse> {
     await this.assertNameFree(input.name);
     const atMs = this.now();
     const windows = sortWindows(input.windows);
+    if (options.dryRun) {
+      const draft: WindowPresetResponse["preset"] = {
+        id: null,
+        name: input.name,
+        description: input.description,
+        builtIn: false,
+        windows,
+        dewPointMarginC: input.dewPointMarginC,
+        notes: [],
+        createdAtMs: null,
+        updatedAtMs: null,
+      };
+      return { preset: draft, warnings: windowWarnings(draft), dryRun: true, changed: true };
+    }
     const id = await this.dataSource.transaction(async (tx) => {
       const result = await tx.getRepository(WindowPresetEntity).insert({
         name: input.name,
@@ -370,10 +384,10 @@ export class WindowSettingsService {
       return newId;
     });
     const preset = await this.findPreset(String(id));
-    return { preset, warnings: windowWarnings(preset) };
+    return { preset, warnings: windowWarnings(preset), dryRun: false, changed: true };
   }
 
-  async updatePreset(id: string, input: UpdateWindowPresetInput, actor: Principal): Promise<WindowPresetResponse> {
+  async updatePreset(id: string, input: UpdateWindowPresetInput, actor: Principal, options: { dryRun: boolean }): Promise<WindowPresetResponse> {
     const record = await this.customPreset(id);
     if (input.name !== undefined) await this.assertNameFree(input.name, record.id);
     const before = presetView(record);
@@ -389,7 +403,9 @@ export class WindowSettingsService {
       ...(before.description !== after.description ? [auditChange("description", "text", before.description, after.description)] : []),
       ...windowSetChanges(before, after),
     ];
-    if (changes.length > 0) {
+    const changed = changes.length > 0;
+    if (options.dryRun) return { preset: after, warnings: windowWarnings(after), dryRun: true, changed };
+    if (changed) {
       const atMs = this.now();
       await this.dataSource.transaction(async (tx) => {
         await tx.getRepository(WindowPresetEntity).update(
@@ -400,7 +416,7 @@ export class WindowSettingsService {
       });
     }
     const preset = await this.findPreset(id);
-    return { preset, warnings: windowWarnings(preset) };
+    return { preset, warnings: windowWarnings(preset), dryRun: false, changed };
   }
 
   /** Deletes a custom preset; zones that used it keep their windows (a preset is copied when applied). */

@@ -51,11 +51,12 @@ export function windowsRoutes(table: RouteTable, settings: WindowSettingsService
     res.json({ presets: await settings.listPresets() });
   });
   r.post("/window-presets", WINDOW_EDITORS, async (req, res) => {
-    res.status(201).json(await settings.createPreset(windowPresetInputSchema.parse(req.body), req.principal!));
+    const answer = await settings.createPreset(windowPresetInputSchema.parse(req.body), req.principal!, { dryRun: dryRun(req.query) });
+    res.status(answer.dryRun ? 200 : 201).json(answer);
   });
   r.patch("/window-presets/:id", WINDOW_EDITORS, async (req, res) => {
     const { id } = presetParams.parse(req.params);
-    res.json(await settings.updatePreset(id, updateWindowPresetInputSchema.parse(req.body), req.principal!));
+    res.json(await settings.updatePreset(id, updateWindowPresetInputSchema.parse(req.body), req.principal!, { dryRun: dryRun(req.query) }));
   });
   r.delete("/window-presets/:id", WINDOW_EDITORS, async (req, res) => {
     await settings.deletePreset(presetParams.parse(req.params).id, req.principal!);
