@@ -2,7 +2,7 @@ import { z } from "zod";
 import { quantitySchema } from "./quantities.js";
 import { quantityWindowSchema } from "./windows.js";
 
-/** Query of GET /api/benches/:id/readings. Times are ISO 8601 or milliseconds since 1970. */
+/** Query of GET /api/benches/:id/readings and GET /api/zones/:id/readings. Times are ISO 8601 or milliseconds since 1970. */
 export const seriesQuerySchema = z
   .object({
     from: z.coerce.date().optional(),
@@ -37,6 +37,19 @@ export const benchReadingsResponseSchema = z.object({
   series: z.array(benchSeriesSchema),
 });
 export type BenchReadingsResponse = z.infer<typeof benchReadingsResponseSchema>;
+
+/**
+ * GET /api/zones/:id/readings (same query as a bench's): every bench in use of the zone, in walking
+ * order, each exactly as GET /api/benches/:id/readings answers it, on one bucket grid.
+ */
+export const zoneReadingsResponseSchema = z.object({
+  zone: z.object({ id: z.number().int(), name: z.string(), siteName: z.string() }),
+  fromMs: z.number(),
+  toMs: z.number(),
+  bucketMs: z.number(),
+  benches: z.array(benchReadingsResponseSchema),
+});
+export type ZoneReadingsResponse = z.infer<typeof zoneReadingsResponseSchema>;
 
 /** The most buckets a series is cut into, so a 30-day chart stays small. */
 export const MAX_SERIES_POINTS = 500;

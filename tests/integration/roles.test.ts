@@ -31,6 +31,7 @@ const MATRIX: Record<string, Access> = {
   "GET /api/mail": ["admin"],
   "GET /api/zones": ALL,
   "GET /api/benches/:benchId/readings": ALL,
+  "GET /api/zones/:id/readings": ALL,
   "GET /api/stream": ALL,
   "GET /api/alerts": ALL,
   "GET /api/alerts/:id": ALL,

@@ -97,3 +97,47 @@ describe("series from rollups", () => {
     }
   });
 });
+
+describe("series of several benches at once (a zone's chart)", () => {
+  const ranges = [
+    [T0 + 12_345, T0 + DAY_MS + 12_345],
+    [T0 + 3_600_000, T0 + 7 * DAY_MS + 3_600_000],
+    [T0 + 1_000, T0 + 8 * DAY_MS - 1_000],
+    [T0 + 30_000, T0 + 45_000],
+  ] as const;
+
+  it("gives each bench exactly the series that bench's own query gives, on one bucket grid", () => {
+    for (const [fromMs, toMs] of ranges) {
+      const bucketMs = bucketSizeMs(toMs - fromMs);
+      const all = repository.seriesOfBenches([1, 2, 3], [QUANTITY, "air.humidity"], fromMs, toMs, bucketMs);
+      for (const benchId of [1, 2]) {
+        const own = repository.series(benchId, QUANTITY, fromMs, toMs, bucketMs);
+        expect(own.length).toBeGreaterThan(0);
+        const together = all.get(benchId)?.get(QUANTITY) ?? [];
+        expect(together.map((p) => [p.timeMs, p.count])).toEqual(own.map((p) => [p.timeMs, p.count]));
+        together.forEach((p, i) => {
+          expect(p.min).toBeCloseTo(own[i]!.min, 9);
+          expect(p.mean).toBeCloseTo(own[i]!.mean, 9);
+          expect(p.max).toBeCloseTo(own[i]!.max, 9);
+        });
+        expect(together.length).toBeLessThanOrEqual(500);
+      }
+      // Nothing stored for bench 3 or for humidity: absent, not empty lists.
+      expect(all.has(3)).toBe(false);
+      expect(all.get(1)?.has("air.humidity")).toBe(false);
+    }
+    expect(repository.seriesOfBenches([], [QUANTITY], T0, T0 + DAY_MS, 180_000).size).toBe(0);
+  });
+
+  it("reads through the rollups' primary key and the readings' (bench, quantity, time) index, never a scan of either table", () => {
+    const fromMs = T0 + 1_000;
+    const toMs = T0 + 7 * DAY_MS + 1_000;
+    const plan = repository.seriesOfBenchesPlan([1, 2], [QUANTITY], fromMs, toMs, bucketSizeMs(toMs - fromMs));
+    // Every table is reached by a search on a key; the only scans are of the id lists and the union.
+    expect(plan.filter((d) => d.startsWith("SCAN")).every((d) => /^SCAN (json_each VIRTUAL TABLE|\(subquery-\d+\))/.test(d))).toBe(true);
+    expect(plan.filter((d) => /^SEARCH \S+ USING/.test(d)).every((d) => /USING (COVERING )?INDEX idx_reading_bench_quantity_time \(bench_id=\? AND quantity=\?|USING PRIMARY KEY \(bench_id=\? AND quantity=\? AND resolution_ms=\?/.test(d))).toBe(true);
+    // The middle of the range from the rollups (1-minute edges, coarse middle), the partial minutes at the ends from the readings.
+    expect(plan.filter((d) => d === "SEARCH reading_rollup USING PRIMARY KEY (bench_id=? AND quantity=? AND resolution_ms=? AND start_ms>? AND start_ms<?)")).toHaveLength(3);
+    expect(plan.filter((d) => /^SEARCH \S+ USING INDEX idx_reading_bench_quantity_time \(bench_id=\? AND quantity=\? AND time_ms>\? AND time_ms<\?\)$/.test(d)).length).toBeGreaterThanOrEqual(2);
+  });
+});

@@ -35,6 +35,20 @@ interface RollupCell {
 }
 
 /**
+ * Where a series' three tiers meet: raw readings in [from, minuteFrom) and [minuteTo, to), 1-minute
+ * rollups up to the coarse boundaries, rollups of coarseMs (1 min, 15 min or 1 h; a divisor of
+ * bucketMs, at most half of it) in [coarseFrom, coarseTo).
+ */
+function tierBounds(fromMs: number, toMs: number, bucketMs: number) {
+  const coarseMs = [...ROLLUP_RESOLUTIONS_MS].reverse().find((r) => r * 2 <= bucketMs && bucketMs % r === 0) ?? MINUTE_MS;
+  const minuteFromMs = Math.min(toMs, Math.ceil(fromMs / MINUTE_MS) * MINUTE_MS);
+  const minuteToMs = Math.max(minuteFromMs, Math.floor(toMs / MINUTE_MS) * MINUTE_MS);
+  const coarseFromMs = Math.min(minuteToMs, Math.max(minuteFromMs, Math.ceil(minuteFromMs / coarseMs) * coarseMs));
+  const coarseToMs = Math.max(coarseFromMs, Math.floor(minuteToMs / coarseMs) * coarseMs);
+  return { coarseMs, minuteFromMs, minuteToMs, coarseFromMs, coarseToMs };
+}
+
+/**
  * SQL for readings through prepared statements on the raw better-sqlite3 handle: the ingest hot
  * path and chart reads are too hot for the query builder (STACK.md, measured).
  */
@@ -42,6 +56,8 @@ export class ReadingsRepository {
   private readonly insertReading: BetterSqlite3.Statement;
   private readonly upsertLatest: BetterSqlite3.Statement;
   private readonly selectSeries: BetterSqlite3.Statement;
+  private readonly selectZoneSeries: BetterSqlite3.Statement;
+  private readonly explainZoneSeries: BetterSqlite3.Statement;
   private readonly selectLatestForBenches: BetterSqlite3.Statement;
   private readonly insertBatch: (rows: ReadingRow[]) => ReadingRow[];
   private readonly upsertRollup: BetterSqlite3.Statement;
@@ -72,22 +88,34 @@ export class ReadingsRepository {
     // A series from three tiers: raw readings for the partial minutes at either end, 1-minute
     // rollups up to the coarse resolution's boundaries, coarse rollups in between. Every reading in
     // [from, to) is counted once; a rollup goes to the bucket its start falls in. Bucket keys need
-    // an explicit integer cast: JS numbers bind as REAL (STACK.md).
-    const rawPart = (lo: string, hi: string) =>
-      `SELECT CAST((time_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, value AS mn, value AS mx, value AS sm, 1 AS n
-         FROM reading WHERE bench_id = @benchId AND quantity = @quantity AND time_ms >= @${lo} AND time_ms < @${hi}`;
-    const rollupPart = (resolution: string, lo: string, hi: string) =>
-      `SELECT CAST((start_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, min AS mn, max AS mx, sum AS sm, count AS n
-         FROM reading_rollup WHERE bench_id = @benchId AND quantity = @quantity AND resolution_ms = ${resolution} AND start_ms >= @${lo} AND start_ms < @${hi}`;
-    this.selectSeries = db.prepare(
-      `SELECT bucket, MIN(mn) AS min, SUM(sm) / SUM(n) AS mean, MAX(mx) AS max, SUM(n) AS count FROM (
-         ${rawPart("fromMs", "minuteFromMs")}
+    // an explicit integer cast: JS numbers bind as REAL (STACK.md). `keys` are extra columns to
+    // group by (bench and quantity for a zone), `where` picks the series.
+    const tiers = (keys: string, where: string) => {
+      const rawPart = (lo: string, hi: string) =>
+        `SELECT ${keys} CAST((time_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, value AS mn, value AS mx, value AS sm, 1 AS n
+           FROM reading WHERE ${where} AND time_ms >= @${lo} AND time_ms < @${hi}`;
+      const rollupPart = (resolution: string, lo: string, hi: string) =>
+        `SELECT ${keys} CAST((start_ms - @fromMs) / @bucketMs AS INTEGER) AS bucket, min AS mn, max AS mx, sum AS sm, count AS n
+           FROM reading_rollup WHERE ${where} AND resolution_ms = ${resolution} AND start_ms >= @${lo} AND start_ms < @${hi}`;
+      return `${rawPart("fromMs", "minuteFromMs")}
          UNION ALL ${rawPart("minuteToMs", "toMs")}
          UNION ALL ${rollupPart(String(MINUTE_MS), "minuteFromMs", "coarseFromMs")}
          UNION ALL ${rollupPart(String(MINUTE_MS), "coarseToMs", "minuteToMs")}
-         UNION ALL ${rollupPart("@coarseMs", "coarseFromMs", "coarseToMs")}
+         UNION ALL ${rollupPart("@coarseMs", "coarseFromMs", "coarseToMs")}`;
+    };
+    this.selectSeries = db.prepare(
+      `SELECT bucket, MIN(mn) AS min, SUM(sm) / SUM(n) AS mean, MAX(mx) AS max, SUM(n) AS count FROM (
+         ${tiers("", "bench_id = @benchId AND quantity = @quantity")}
        ) GROUP BY bucket ORDER BY bucket`,
     );
+    // Every series of several benches in one statement (a zone's chart). The lists arrive as JSON
+    // arrays; SQLite turns each IN (json_each) into index look-ups on the rollups' primary key and
+    // the readings' (bench, quantity, time) index (tested with EXPLAIN QUERY PLAN).
+    const zoneSeriesSql = `SELECT bench_id AS benchId, quantity, bucket, MIN(mn) AS min, SUM(sm) / SUM(n) AS mean, MAX(mx) AS max, SUM(n) AS count FROM (
+         ${tiers("bench_id, quantity,", "bench_id IN (SELECT value FROM json_each(@benchIds)) AND quantity IN (SELECT value FROM json_each(@quantities))")}
+       ) GROUP BY bench_id, quantity, bucket ORDER BY bench_id, quantity, bucket`;
+    this.selectZoneSeries = db.prepare(zoneSeriesSql);
+    this.explainZoneSeries = db.prepare(`EXPLAIN QUERY PLAN ${zoneSeriesSql}`);
     this.selectStale = db.prepare(`SELECT bench_id AS benchId, quantity, hour_ms AS hourMs FROM reading_rollup_stale LIMIT 250`);
     // Naming every resolution lets each delete walk the primary key (bench, quantity, resolution,
     // start) to the hour; without it SQLite scans the series' whole history once per stale hour.
@@ -190,12 +218,7 @@ export class ReadingsRepository {
    */
   series(benchId: number, quantity: Quantity, fromMs: number, toMs: number, bucketMs: number): SeriesPoint[] {
     this.refreshStaleRollups();
-    const coarseMs = [...ROLLUP_RESOLUTIONS_MS].reverse().find((r) => r * 2 <= bucketMs && bucketMs % r === 0) ?? MINUTE_MS;
-    const minuteFromMs = Math.min(toMs, Math.ceil(fromMs / MINUTE_MS) * MINUTE_MS);
-    const minuteToMs = Math.max(minuteFromMs, Math.floor(toMs / MINUTE_MS) * MINUTE_MS);
-    const coarseFromMs = Math.min(minuteToMs, Math.max(minuteFromMs, Math.ceil(minuteFromMs / coarseMs) * coarseMs));
-    const coarseToMs = Math.max(coarseFromMs, Math.floor(minuteToMs / coarseMs) * coarseMs);
-    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs, coarseMs, minuteFromMs, minuteToMs, coarseFromMs, coarseToMs }) as {
+    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs, ...tierBounds(fromMs, toMs, bucketMs) }) as {
       bucket: number;
       min: number;
       mean: number;
@@ -203,6 +226,43 @@ export class ReadingsRepository {
       count: number;
     }[];
     return rows.map((r) => ({ timeMs: fromMs + r.bucket * bucketMs, min: r.min, mean: r.mean, max: r.max, count: r.count }));
+  }
+
+  /**
+   * The series of several benches and quantities at once, on one bucket grid: what series() gives
+   * for each pair, read in one statement. Pairs without readings are absent from the map.
+   */
+  seriesOfBenches(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number): Map<number, Map<Quantity, SeriesPoint[]>> {
+    this.refreshStaleRollups();
+    const out = new Map<number, Map<Quantity, SeriesPoint[]>>();
+    if (benchIds.length === 0 || quantities.length === 0) return out;
+    const rows = this.selectZoneSeries.all(this.zoneSeriesParams(benchIds, quantities, fromMs, toMs, bucketMs)) as {
+      benchId: number;
+      quantity: Quantity;
+      bucket: number;
+      min: number;
+      mean: number;
+      max: number;
+      count: number;
+    }[];
+    for (const r of rows) {
+      let bench = out.get(r.benchId);
+      if (!bench) out.set(r.benchId, (bench = new Map()));
+      let points = bench.get(r.quantity);
+      if (!points) bench.set(r.quantity, (points = []));
+      points.push({ timeMs: fromMs + r.bucket * bucketMs, min: r.min, mean: r.mean, max: r.max, count: r.count });
+    }
+    return out;
+  }
+
+  /** SQLite's plan for seriesOfBenches (EXPLAIN QUERY PLAN, one line per step), to check it uses the indexes. */
+  seriesOfBenchesPlan(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number): string[] {
+    const rows = this.explainZoneSeries.all(this.zoneSeriesParams(benchIds, quantities, fromMs, toMs, bucketMs)) as { detail: string }[];
+    return rows.map((r) => r.detail);
+  }
+
+  private zoneSeriesParams(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number) {
+    return { benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), fromMs, toMs, bucketMs, ...tierBounds(fromMs, toMs, bucketMs) };
   }
 
   /** The newest reading per sensor and quantity, for every sensor on a bench. */
