@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { addDays, localDate, localMidnightMs, localTimeToMs, roundLookbackStartMs } from "./batch-calendar.js";
+import { addDays, localDate, localMidnightMs, localTimeToMs, observationTime, roundLookbackStartMs } from "./batch-calendar.js";
 
 // Time-zone rules are those of the IANA tz database as the platform's Intl carries them; US daylight
 // saving starts on the second Sunday in March and ends on the first Sunday in November (15 U.S.C. § 260a).
@@ -37,5 +37,16 @@ describe("site-local dates and times", () => {
     expect(addDays("2025-01-01", -1)).toBe("2024-12-31");
     expect(addDays("2024-02-28", 1)).toBe("2024-02-29");
     expect(addDays("not a date", 1)).toBeUndefined();
+  });
+
+  it("an observation recorded on the day it names is placed at its recording; one entered on a later day at local noon of its date", () => {
+    // 07:40 CST on 15 Jan, recorded that morning.
+    expect(observationTime("2025-01-15", Date.UTC(2025, 0, 15, 13, 40), CHICAGO)).toEqual({ timeMs: Date.UTC(2025, 0, 15, 13, 40), isDateOnly: false });
+    // 15 Jan entered at 08:00 CST on the 16th: only the day is known → 12:00 CST on the 15th.
+    expect(observationTime("2025-01-15", Date.UTC(2025, 0, 16, 14, 0), CHICAGO)).toEqual({ timeMs: Date.UTC(2025, 0, 15, 18, 0), isDateOnly: true });
+    // 21:00 CST on the 15th is already the 16th in UTC: the site's date decides, so it stays the recording time.
+    expect(observationTime("2025-01-15", Date.UTC(2025, 0, 16, 3, 0), CHICAGO)).toEqual({ timeMs: Date.UTC(2025, 0, 16, 3, 0), isDateOnly: false });
+    // Noon in daylight time is 17:00 UTC.
+    expect(observationTime("2025-07-01", Date.UTC(2025, 6, 3, 12, 0), CHICAGO)).toEqual({ timeMs: Date.UTC(2025, 6, 1, 17, 0), isDateOnly: true });
   });
 });

@@ -101,3 +101,19 @@ export function roundLookbackStartMs(atMs: number, timeZone: string): number {
   const yesterday = addDays(localDate(atMs, timeZone), -1) as string;
   return localTimeToMs(yesterday, ROUND_LOOKBACK_MINUTE, timeZone) as number;
 }
+
+/** Where on the day a date-only observation is placed: local noon, the middle of the day it names. */
+export const DATE_ONLY_OBSERVATION_MINUTE = 12 * 60;
+
+/**
+ * When an observation was made, for placing it in time (a chart marker, the bench its batch stood
+ * on). An observation names a date (site time) and was recorded at an instant: when the instant
+ * falls on that date, it is the time; otherwise the observation was entered on a later day (or its
+ * date corrected), only the day is known, and it is placed at local noon of its date
+ * (`isDateOnly`). An impossible date also falls back to the recording instant.
+ */
+export function observationTime(observedOn: string, recordedAtMs: number, timeZone: string): { timeMs: number; isDateOnly: boolean } {
+  if (localDate(recordedAtMs, timeZone) === observedOn) return { timeMs: recordedAtMs, isDateOnly: false };
+  const noonMs = localTimeToMs(observedOn, DATE_ONLY_OBSERVATION_MINUTE, timeZone);
+  return noonMs === undefined ? { timeMs: recordedAtMs, isDateOnly: false } : { timeMs: noonMs, isDateOnly: true };
+}

@@ -13,6 +13,7 @@ import {
   latestCounts,
   lossRate,
   pooledInsidePct,
+  placementAt,
   pooledStrikeRate,
   strikeRate,
   summariseDays,
@@ -193,5 +194,26 @@ describe("batch properties (fast-check)", () => {
         return ab.ok && bc.ok && ac.ok && ab.value + bc.value === ac.value;
       }),
     );
+  });
+});
+
+describe("the bench a batch stood on at an instant", () => {
+  const placements = [
+    { benchId: 2, fromMs: 5_000, toMs: 9_000 },
+    { benchId: 1, fromMs: 1_000, toMs: 5_000 },
+    { benchId: 3, fromMs: 12_000, toMs: null },
+  ];
+
+  it("is the placement whose [from, to) holds it: a move's instant belongs to the new bench", () => {
+    expect(placementAt(placements, 1_000)?.benchId).toBe(1);
+    expect(placementAt(placements, 4_999)?.benchId).toBe(1);
+    expect(placementAt(placements, 5_000)?.benchId).toBe(2);
+    expect(placementAt(placements, 99_999)?.benchId).toBe(3);
+  });
+
+  it("outside every placement: the latest one begun by then, else the first; nothing without placements", () => {
+    expect(placementAt(placements, 10_000)?.benchId).toBe(2); // a gap after bench 2
+    expect(placementAt(placements, 10)?.benchId).toBe(1); // before the batch was placed
+    expect(placementAt([], 10)).toBeUndefined();
   });
 });

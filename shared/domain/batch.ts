@@ -254,3 +254,14 @@ export function pooledInsidePct(parts: readonly { insideMs: number; dataMs: numb
   }
   return data > 0 ? (100 * inside) / data : null;
 }
+
+/**
+ * The placement a batch was in at an instant: the one whose [fromMs, toMs) holds it (toMs null: it
+ * is still there). Outside every placement (before the first, or in a gap the records leave), the
+ * latest one begun by then, else the first. undefined only for no placements.
+ */
+export function placementAt<P extends { fromMs: number; toMs: number | null }>(placements: readonly P[], timeMs: number): P | undefined {
+  const sorted = [...placements].sort((a, b) => a.fromMs - b.fromMs);
+  const holding = sorted.find((p) => p.fromMs <= timeMs && (p.toMs === null || timeMs < p.toMs));
+  return holding ?? sorted.filter((p) => p.fromMs <= timeMs).at(-1) ?? sorted[0];
+}

@@ -403,6 +403,59 @@ export type ObservationResponse = z.infer<typeof observationResponseSchema>;
 export const observationsResponseSchema = z.object({ observations: z.array(observationViewSchema) });
 export type ObservationsResponse = z.infer<typeof observationsResponseSchema>;
 
+/** The longest range GET /api/observations answers: as long as a chart's (shared/schemas/readings.ts). */
+export const MAX_OBSERVATIONS_RANGE_MS = 400 * 86_400_000;
+
+/**
+ * GET /api/observations — the observations made on a bench (`benchId`), or on any bench of a zone
+ * (`zoneId`), in [fromMs, toMs): the history charts' markers. Give one of benchId and zoneId.
+ * "On a bench" follows the batch's placements: an observation belongs to the bench its batch stood
+ * on when it was made (shared/domain/batch-calendar.ts observationTime, batch.ts placementAt).
+ * At most `limit`, the newest; `isTruncated` says more were left out.
+ */
+export const benchObservationsQuerySchema = z
+  .object({
+    benchId: z.coerce.number().int().positive().optional(),
+    zoneId: z.coerce.number().int().positive().optional(),
+    fromMs: z.coerce.number({ error: "Give fromMs, ms since 1970" }).int().min(0),
+    toMs: z.coerce.number({ error: "Give toMs, ms since 1970" }).int().min(0),
+    limit: z.coerce.number().int().min(1).max(2000).default(1000),
+  })
+  .superRefine((q, ctx) => {
+    if ((q.benchId === undefined) === (q.zoneId === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["benchId"], message: "Give either benchId or zoneId" });
+    }
+    if (!(q.fromMs < q.toMs)) ctx.addIssue({ code: "custom", path: ["fromMs"], message: "'fromMs' must be before 'toMs'" });
+    else if (q.toMs - q.fromMs > MAX_OBSERVATIONS_RANGE_MS) ctx.addIssue({ code: "custom", path: ["fromMs"], message: "Ask for at most 400 days at a time" });
+  });
+export type BenchObservationsQuery = z.infer<typeof benchObservationsQuerySchema>;
+
+/** An observation placed in time on the bench its batch stood on. */
+export const benchObservationSchema = z.object({
+  id: z.number().int(),
+  batchId: z.number().int(),
+  variety: z.string(),
+  countStuck: z.number().int(),
+  benchId: z.number().int(),
+  benchName: z.string(),
+  /** When it was made: the recording instant, or local noon of its date when `isDateOnly`. */
+  timeMs: z.number(),
+  /** Entered on a later day than it names: only the date is known. */
+  isDateOnly: z.boolean(),
+  observedOn: z.string(),
+  stage: batchStageSchema,
+  rootedCount: z.number().int().nullable(),
+  lostCount: z.number().int().nullable(),
+  flags: z.array(observationFlagSchema),
+  note: z.string().nullable(),
+  recordedByName: z.string(),
+});
+export type BenchObservation = z.infer<typeof benchObservationSchema>;
+
+/** Oldest first. */
+export const benchObservationsResponseSchema = z.object({ observations: z.array(benchObservationSchema), isTruncated: z.boolean() });
+export type BenchObservationsResponse = z.infer<typeof benchObservationsResponseSchema>;
+
 /** Answer of a photo upload: the photos of this upload (already stored ones included) and the observation now. */
 export const uploadPhotosResponseSchema = z.object({ photos: z.array(photoViewSchema), observation: observationViewSchema });
 export type UploadPhotosResponse = z.infer<typeof uploadPhotosResponseSchema>;

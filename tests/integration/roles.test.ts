@@ -85,6 +85,7 @@ const MATRIX: Record<string, Access> = {
   "POST /api/batches/:id/reopen": ["admin", "manager", "grower"],
   "GET /api/batches/:id/observations": ALL,
   "POST /api/batches/:id/observations": ["admin", "manager", "grower"],
+  "GET /api/observations": ALL,
   "GET /api/observations/:id": ALL,
   "PATCH /api/observations/:id": ["admin", "manager", "grower"],
   "DELETE /api/observations/:id": ["admin", "manager", "grower"],

@@ -1,7 +1,9 @@
 import { Router } from "express";
 import {
+  benchObservationsQuerySchema,
   createObservationInputSchema,
   updateObservationInputSchema,
+  type BenchObservationsResponse,
   type CreateObservationResponse,
   type ObservationResponse,
   type ObservationsResponse,
@@ -24,6 +26,11 @@ export function observationsRoutes(table: RouteTable, observations: Observations
     const batchId = id(req.params);
     const body: CreateObservationResponse = await observations.create(batchId, createObservationInputSchema.parse(req.body), req.principal!);
     res.status(body.created ? 201 : 200).json(body);
+  });
+  // On a bench or a zone's benches over a range: the history charts' markers.
+  r.get("/observations", EVERYONE_SIGNED_IN, async (req, res) => {
+    const body: BenchObservationsResponse = await observations.onBenches(benchObservationsQuerySchema.parse(req.query));
+    res.json(body);
   });
   r.get("/observations/:id", EVERYONE_SIGNED_IN, async (req, res) => {
     const body: ObservationResponse = { observation: await observations.get(id(req.params)) };

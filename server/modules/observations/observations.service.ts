@@ -1,7 +1,10 @@
-import { In, type DataSource } from "typeorm";
-import { checkBatchCounts, latestCounts } from "../../../shared/domain/batch.js";
-import { localDate } from "../../../shared/domain/batch-calendar.js";
+import { Between, In, type DataSource } from "typeorm";
+import { checkBatchCounts, latestCounts, placementAt } from "../../../shared/domain/batch.js";
+import { localDate, observationTime } from "../../../shared/domain/batch-calendar.js";
 import type {
+  BenchObservation,
+  BenchObservationsQuery,
+  BenchObservationsResponse,
   CreateObservationInput,
   CreateObservationResponse,
   ObservationFlag,
@@ -9,14 +12,18 @@ import type {
   PhotoView,
   UpdateObservationInput,
 } from "../../../shared/schemas/batches.js";
-import type { BatchRecord } from "../../db/entities/batch.entity.js";
+import { BatchEntity, BatchPlacementEntity, type BatchRecord } from "../../db/entities/batch.entity.js";
+import { BenchEntity } from "../../db/entities/bench.entity.js";
 import { ObservationEntity, type ObservationRecord } from "../../db/entities/observation.entity.js";
 import { WalkRoundEntity } from "../../db/entities/walk-round.entity.js";
+import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import type { Principal } from "../../lib/auth.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import { actorName, benchContexts, isUniqueViolation } from "../batches/bench-context.js";
 import { splitList, toCountedObservation, type BatchesService } from "../batches/batches.service.js";
 import type { PhotosService } from "../photos/photos.service.js";
+
+const DAY_MS = 86_400_000;
 
 /** A date a little ahead of the server's still counts as today (a tablet's clock may run fast). */
 const CLOCK_SKEW_MS = 2 * 60_000;
@@ -86,6 +93,77 @@ export class ObservationsService {
     const rows = await this.dataSource.getRepository(ObservationEntity).findBy({ roundId, batchId: In(batchIds) });
     for (const v of await this.views(rows.sort(oldestFirst))) out.set(v.batchId, [...(out.get(v.batchId) ?? []), v]);
     return out;
+  }
+
+  /**
+   * Observations made on a bench, or on any bench of a zone, in [fromMs, toMs) (the history
+   * charts' markers). Each is placed at its time (observationTime, in its site's time zone) on the
+   * bench its batch stood on then (placementAt); oldest first, at most `limit` (the newest).
+   */
+  async onBenches(query: BenchObservationsQuery): Promise<BenchObservationsResponse> {
+    const manager = this.dataSource.manager;
+    let benchIds: number[];
+    if (query.benchId !== undefined) {
+      if (!(await manager.getRepository(BenchEntity).existsBy({ id: query.benchId }))) throw notFound("bench-not-found", `There is no bench ${query.benchId}`);
+      benchIds = [query.benchId];
+    } else {
+      const zoneId = query.zoneId!;
+      if (!(await manager.getRepository(ZoneEntity).existsBy({ id: zoneId }))) throw notFound("zone-not-found", `There is no zone ${zoneId}`);
+      // Archived benches too: their history stays.
+      benchIds = (await manager.getRepository(BenchEntity).find({ where: { zoneId }, select: { id: true } })).map((b) => b.id);
+    }
+    const { fromMs, toMs } = query;
+    if (benchIds.length === 0) return { observations: [], isTruncated: false };
+
+    // Batches that stood on one of the benches about then (a day's slack either side: a date-only
+    // observation sits at noon of its date), and their observations dated about then (two days'
+    // slack: dates are site-local, the bounds UTC); exact times are worked out below.
+    const near = (await manager
+      .getRepository(BatchPlacementEntity)
+      .createQueryBuilder("p")
+      .select("DISTINCT p.batchId", "batchId")
+      .where("p.benchId IN (:...benchIds)", { benchIds })
+      .andWhere("p.fromMs < :to", { to: toMs + DAY_MS })
+      .andWhere("(p.toMs IS NULL OR p.toMs > :from)", { from: fromMs - DAY_MS })
+      .getRawMany()) as { batchId: number }[];
+    if (near.length === 0) return { observations: [], isTruncated: false };
+    const batchIds = near.map((n) => Number(n.batchId));
+    const utcDate = (ms: number) => new Date(ms).toISOString().slice(0, 10);
+    const records = await manager.getRepository(ObservationEntity).findBy({ batchId: In(batchIds), observedOn: Between(utcDate(fromMs - 2 * DAY_MS), utcDate(toMs + 2 * DAY_MS)) });
+    if (records.length === 0) return { observations: [], isTruncated: false };
+
+    const batches = new Map((await manager.getRepository(BatchEntity).findBy({ id: In([...new Set(records.map((o) => o.batchId))]) })).map((b) => [b.id, b]));
+    const placements = await this.batches.placementsOf([...batches.keys()]);
+    const contexts = await benchContexts(manager, [...batches.values()].map((b) => b.benchId).concat([...placements.values()].flat().map((p) => p.benchId)));
+    const wanted = new Set(benchIds);
+    const found: BenchObservation[] = [];
+    for (const o of records) {
+      const batch = batches.get(o.batchId);
+      if (!batch) continue;
+      const { timeMs, isDateOnly } = observationTime(o.observedOn, o.recordedAtMs, contexts.get(batch.benchId)?.site.timeZone ?? "UTC");
+      if (timeMs < fromMs || timeMs >= toMs) continue;
+      const benchId = placementAt(placements.get(batch.id) ?? [], timeMs)?.benchId ?? batch.benchId;
+      if (!wanted.has(benchId)) continue;
+      found.push({
+        id: o.id,
+        batchId: batch.id,
+        variety: batch.variety,
+        countStuck: batch.countStuck,
+        benchId,
+        benchName: contexts.get(benchId)?.bench.name ?? `Bench ${benchId}`,
+        timeMs,
+        isDateOnly,
+        observedOn: o.observedOn,
+        stage: o.stage,
+        rootedCount: o.rootedCount,
+        lostCount: o.lostCount,
+        flags: splitList<ObservationFlag>(o.flags),
+        note: o.note,
+        recordedByName: o.recordedByName,
+      });
+    }
+    found.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
+    return { observations: found.slice(-query.limit), isTruncated: found.length > query.limit };
   }
 
   private async timeZoneOf(batch: BatchRecord): Promise<string> {
