@@ -26,7 +26,8 @@ export function createIngest({ sensors, writer, metrics, logger, now = Date.now 
       logger.warn({ sensorId }, "reading from an unknown sensor refused");
       return;
     }
-    const result = readingsFromPayload(payload.toString("utf8"), { nowMs: now() });
+    const calibration = await sensors.calibrationOf(sensorId);
+    const result = readingsFromPayload(payload.toString("utf8"), { nowMs: now(), calibration });
     if (!result.ok) {
       metrics.readingsRejected.inc({ reason: result.reason });
       logger.warn({ sensorId, reason: result.reason, detail: result.detail }, "SenML pack refused");

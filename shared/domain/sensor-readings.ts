@@ -8,6 +8,7 @@ import {
   type RecordRejectionReason,
   type ResolvedRecord,
 } from "./senml.js";
+import { calibrate, type SensorCalibration } from "./calibration.js";
 import { ACCEPTED_SENML_UNITS, toStoredValue } from "./units.js";
 
 /** One value of one quantity at one time, in stored units (°C, %RH, ratio 0–1, %EL). */
@@ -78,7 +79,7 @@ export function quantityFromRecordName(name: string): Quantity | undefined {
  */
 export function readingFromRecord(
   record: ResolvedRecord,
-  options: { nowMs: number; maxAgeMs?: number },
+  options: { nowMs: number; maxAgeMs?: number; calibration?: SensorCalibration },
 ): { ok: true; reading: SensorReading } | { ok: false; reason: ReadingRejectionReason; detail: string } {
   const quantity = quantityFromRecordName(record.name);
   if (quantity === undefined) {
@@ -109,7 +110,10 @@ export function readingFromRecord(
   if (timeMs < options.nowMs - maxAgeMs) {
     return { ok: false, reason: "time-too-old", detail: `time ${timeMs} ms is ${options.nowMs - timeMs} ms before now (at most ${maxAgeMs} ms)` };
   }
-  return { ok: true, reading: { quantity, value, timeMs } };
+  // The range check above is on what the probe measured (outside it the probe is faulty); the
+  // correction may then carry a value just past a physical limit (RH 99 + 2), which is held at it.
+  const calibrated = Math.min(range.max, Math.max(range.min, calibrate(quantity, value, options.calibration)));
+  return { ok: true, reading: { quantity, value: calibrated, timeMs } };
 }
 
 /**
@@ -119,12 +123,13 @@ export function readingFromRecord(
  * Records more than `maxFutureMs` (default 300 s) ahead or `maxAgeMs` (default 7 days) behind
  * are refused; payloads over `maxBytes` (default 64 KiB) are refused whole. Units: temperatures
  * Cel or K (K converted), air.humidity %RH, medium.moisture "/", battery %EL; a missing unit is
- * "unit-not-accepted". Values outside PROBE_RANGE are "out-of-range". Readings come in time
+ * "unit-not-accepted". Values outside PROBE_RANGE are "out-of-range". `calibration` (the sensor's
+ * offset and gain) is applied to each value in stored units, after the range check. Readings come in time
  * order; rejections carry the record's index in the pack. Never throws.
  */
 export function readingsFromPayload(
   text: string,
-  options: { nowMs: number; maxFutureMs?: number; maxAgeMs?: number; maxBytes?: number },
+  options: { nowMs: number; maxFutureMs?: number; maxAgeMs?: number; maxBytes?: number; calibration?: SensorCalibration },
 ): ReadingsFromPackResult {
   const resolved = parseSenmlJsonIndexed(text, {
     nowS: options.nowMs / 1000,
@@ -135,7 +140,11 @@ export function readingsFromPayload(
 
   const readings: SensorReading[] = [];
   const rejected: ReadingRejection[] = [...resolved.rejected];
-  const readingOptions = { nowMs: options.nowMs, ...(options.maxAgeMs !== undefined ? { maxAgeMs: options.maxAgeMs } : {}) };
+  const readingOptions = {
+    nowMs: options.nowMs,
+    ...(options.maxAgeMs !== undefined ? { maxAgeMs: options.maxAgeMs } : {}),
+    ...(options.calibration !== undefined ? { calibration: options.calibration } : {}),
+  };
   for (const { index, record } of resolved.records) {
     const outcome = readingFromRecord(record, readingOptions);
     if (outcome.ok) readings.push(outcome.reading);

@@ -19,6 +19,8 @@ export const auditEntityTypeSchema = z.enum([
   "bench-windows",
   "window-preset",
   "sensor-assignment",
+  /** A sensor's offset and gain per quantity. */
+  "sensor-calibration",
   "duty-rota",
   /** A batch of cuttings (issue 6): created, edited, moved, closed, reopened. */
   "batch",

@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { sensorKindSchema } from "./quantities.js";
+import { CALIBRATION_GAIN_RANGE, MAX_CALIBRATION_OFFSET } from "../domain/calibration.js";
+import { sensorKindSchema, type WindowedQuantity } from "./quantities.js";
 
 /** Sensor ids are MQTT user names and topic levels: letters, digits, - and _ only. */
 export const sensorIdSchema = z
@@ -8,6 +9,42 @@ export const sensorIdSchema = z
   .min(3, "Use at least 3 characters")
   .max(64, "Use at most 64 characters")
   .regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, "Use letters, digits, - and _ only, starting with a letter or digit");
+
+const OFFSET_WORDS: Record<WindowedQuantity, (limit: number) => string> = {
+  "air.temperature": (l) => `${l} °C (${l * 1.8} °F)`,
+  "air.humidity": (l) => `${l} % RH`,
+  "medium.temperature": (l) => `${l} °C (${l * 1.8} °F)`,
+  "medium.moisture": (l) => `${l * 100} % VWC`,
+};
+
+function calibrationOf(quantity: WindowedQuantity) {
+  const limit = MAX_CALIBRATION_OFFSET[quantity];
+  return z.object({
+    offset: z
+      .number({ error: "Enter a number" })
+      .refine(Number.isFinite, "Enter a number")
+      .refine((v) => Math.abs(v) <= limit + 1e-9, `An offset beyond ±${OFFSET_WORDS[quantity](limit)} means the probe is faulty: replace it`),
+    gain: z
+      .number({ error: "Enter a number" })
+      .refine(Number.isFinite, "Enter a number")
+      .refine(
+        (v) => v >= CALIBRATION_GAIN_RANGE.min && v <= CALIBRATION_GAIN_RANGE.max,
+        `Use a gain from ${CALIBRATION_GAIN_RANGE.min} to ${CALIBRATION_GAIN_RANGE.max} (1 = none)`,
+      ),
+  });
+}
+
+/**
+ * A sensor's calibration in stored units (°C, % RH, m³/m³): calibrated = gain × measured + offset,
+ * per quantity; a quantity left out is read as measured (shared/domain/calibration.ts).
+ */
+export const sensorCalibrationSchema = z.object({
+  "air.temperature": calibrationOf("air.temperature").optional(),
+  "air.humidity": calibrationOf("air.humidity").optional(),
+  "medium.temperature": calibrationOf("medium.temperature").optional(),
+  "medium.moisture": calibrationOf("medium.moisture").optional(),
+});
+export type SensorCalibrationInput = z.infer<typeof sensorCalibrationSchema>;
 
 /** A sensor as the admin sees it; never its secret or the secret's hash. */
 export const sensorSchema = z.object({
@@ -20,6 +57,7 @@ export const sensorSchema = z.object({
   createdAtMs: z.number(),
   lastSeenMs: z.number().nullable(),
   batteryPct: z.number().nullable(),
+  calibration: sensorCalibrationSchema,
 });
 export type SensorView = z.infer<typeof sensorSchema>;
 
@@ -35,8 +73,13 @@ export type RegisterSensorInput = z.infer<typeof registerSensorInputSchema>;
 
 /** PATCH /api/sensors/:id (admin) */
 export const updateSensorInputSchema = z
-  .object({ benchId: z.number().int().positive().nullable().optional(), disabled: z.boolean().optional() })
-  .refine((v) => v.benchId !== undefined || v.disabled !== undefined, { message: "Nothing to change" });
+  .object({
+    benchId: z.number().int().positive().nullable().optional(),
+    disabled: z.boolean().optional(),
+    /** Replaces the whole calibration; {} reads every quantity as measured. */
+    calibration: sensorCalibrationSchema.optional(),
+  })
+  .refine((v) => v.benchId !== undefined || v.disabled !== undefined || v.calibration !== undefined, { message: "Nothing to change" });
 export type UpdateSensorInput = z.infer<typeof updateSensorInputSchema>;
 
 /** The answer to a registration or a rotation: the only time the secret is ever shown. */

@@ -84,6 +84,7 @@ export function makeSensor(overrides: Partial<SensorView> = {}): SensorView {
     createdAtMs: NOW_MS - 86_400_000,
     lastSeenMs: Date.now() - 60_000,
     batteryPct: 87,
+    calibration: {},
     ...overrides,
   };
 }

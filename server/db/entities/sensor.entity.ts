@@ -12,6 +12,8 @@ export interface Sensor {
   /** When an admin disabled it; a disabled sensor cannot sign in. */
   disabledAtMs: number | null;
   createdAtMs: number;
+  /** JSON of shared/domain/calibration.ts's SensorCalibration, in stored units; "{}" = none. */
+  calibration: string;
   bench?: Bench | null;
 }
 
@@ -25,6 +27,7 @@ export const SensorEntity = new EntitySchema<Sensor>({
     benchId: { type: "integer", name: "bench_id", nullable: true },
     disabledAtMs: { type: "integer", name: "disabled_at_ms", nullable: true },
     createdAtMs: { type: "integer", name: "created_at_ms" },
+    calibration: { type: "text", default: "{}" },
   },
   relations: {
     bench: { type: "many-to-one", target: "Bench", joinColumn: { name: "bench_id" }, onDelete: "SET NULL", nullable: true },

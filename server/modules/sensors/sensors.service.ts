@@ -1,7 +1,17 @@
 import { createHash, randomBytes, timingSafeEqual } from "node:crypto";
 import { IsNull, type DataSource, type EntityManager } from "typeorm";
+import { isIdentity, type SensorCalibration } from "../../../shared/domain/calibration.js";
+import { WINDOWED_QUANTITIES, type WindowedQuantity } from "../../../shared/schemas/quantities.js";
+import type { AuditChange, AuditValueKind } from "../../../shared/schemas/audit.js";
 import { MAX_ASSIGNMENT_BACKDATE_MS, type AssignSensorInput, type AssignSensorResponse, type SensorAssignment } from "../../../shared/schemas/layout.js";
-import type { RegisterSensorInput, SensorSecretResponse, SensorView, UpdateSensorInput } from "../../../shared/schemas/sensors.js";
+import {
+  sensorCalibrationSchema,
+  type RegisterSensorInput,
+  type SensorCalibrationInput,
+  type SensorSecretResponse,
+  type SensorView,
+  type UpdateSensorInput,
+} from "../../../shared/schemas/sensors.js";
 import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
 import { SensorAssignmentEntity, type SensorAssignmentRecord } from "../../db/entities/sensor-assignment.entity.js";
 import { SensorEntity, type Sensor } from "../../db/entities/sensor.entity.js";
@@ -9,6 +19,46 @@ import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import { auditChange, writeAuditEntry } from "../audit/audit.service.js";
 import type { ReadingsRepository } from "../readings/readings.repository.js";
+
+/** The calibration stored with a sensor; a row that does not parse reads every quantity as measured. */
+export function parseCalibration(json: string): SensorCalibration {
+  let value: unknown;
+  try {
+    value = JSON.parse(json);
+  } catch {
+    return {};
+  }
+  const parsed = sensorCalibrationSchema.safeParse(value);
+  return parsed.success ? dropIdentity(parsed.data) : {};
+}
+
+/** Only the quantities that are corrected: {offset 0, gain 1} is no calibration at all. */
+function dropIdentity(calibration: SensorCalibrationInput): SensorCalibration {
+  const out: SensorCalibration = {};
+  for (const q of WINDOWED_QUANTITIES) {
+    const c = calibration[q];
+    if (c && !isIdentity(c)) out[q] = { offset: c.offset, gain: c.gain };
+  }
+  return out;
+}
+
+/** How the audit list shows an offset of each quantity (a difference, in the reader's units). */
+const OFFSET_KIND: Record<WindowedQuantity, AuditValueKind> = {
+  "air.temperature": "temperature-difference",
+  "air.humidity": "humidity",
+  "medium.temperature": "temperature-difference",
+  "medium.moisture": "moisture",
+};
+
+function calibrationChanges(before: SensorCalibration, after: SensorCalibration): AuditChange[] {
+  const changes: AuditChange[] = [];
+  for (const quantity of WINDOWED_QUANTITIES) {
+    const [was, now] = [before[quantity] ?? { offset: 0, gain: 1 }, after[quantity] ?? { offset: 0, gain: 1 }];
+    if (was.offset !== now.offset) changes.push(auditChange("offset", OFFSET_KIND[quantity], was.offset, now.offset, { quantity }));
+    if (was.gain !== now.gain) changes.push(auditChange("gain", "number", was.gain, now.gain, { quantity }));
+  }
+  return changes;
+}
 
 export function hashSecret(secret: string): string {
   return createHash("sha256").update(secret, "utf8").digest("hex");
@@ -22,6 +72,7 @@ export function generateSecret(): string {
 /** Sensor credentials and bench assignment, cached for the ingest path. */
 export class SensorsService {
   private cache = new Map<string, Sensor>();
+  private parsedCalibrations = new WeakMap<Sensor, SensorCalibration>();
   /** Told when a sensor's credentials stop being valid, so the broker can drop its connection. */
   onRevoked: (sensorId: string) => void = () => {};
 
@@ -180,6 +231,16 @@ export class SensorsService {
     return given.length === stored.length && timingSafeEqual(given, stored);
   }
 
+  /** The sensor's calibration for the ingest path (cached with its credentials). */
+  async calibrationOf(id: string): Promise<SensorCalibration> {
+    const sensor = await this.find(id);
+    if (!sensor) return {};
+    // Parsed once per cached row (a change replaces the row), not once per message.
+    let parsed = this.parsedCalibrations.get(sensor);
+    if (!parsed) this.parsedCalibrations.set(sensor, (parsed = parseCalibration(sensor.calibration)));
+    return parsed;
+  }
+
   /** The bench a sensor is on now (null when unassigned); undefined for an unknown or disabled sensor. */
   async benchOf(id: string): Promise<number | null | undefined> {
     const sensor = await this.find(id);
@@ -208,6 +269,7 @@ export class SensorsService {
         createdAtMs: s.createdAtMs,
         lastSeenMs: mine.length ? Math.max(...mine.map((l) => l.timeMs)) : null,
         batteryPct: mine.find((l) => l.quantity === "battery")?.value ?? null,
+        calibration: parseCalibration(s.calibration),
       };
     });
   }
@@ -243,6 +305,7 @@ export class SensorsService {
         secretHash: hashSecret(secret),
         disabledAtMs: null,
         createdAtMs: nowMs,
+        calibration: "{}",
       });
       if (input.benchId !== null) await this.recordMove(tx, input.id, null, input.benchId, nowMs, nowMs);
     });
@@ -265,8 +328,30 @@ export class SensorsService {
     if (input.benchId !== undefined) await this.assertBench(input.benchId);
     const changes: Partial<Sensor> = {};
     if (input.disabled !== undefined && input.disabled !== current.disabled) changes.disabledAtMs = input.disabled ? nowMs : null;
+    const calibration = input.calibration === undefined ? undefined : dropIdentity(input.calibration);
+    const calibrationAudit = calibration === undefined ? [] : calibrationChanges(current.calibration, calibration);
+    if (calibration !== undefined && calibrationAudit.length > 0) changes.calibration = JSON.stringify(calibration);
     await this.dataSource.transaction(async (tx) => {
       if (Object.keys(changes).length > 0) await tx.getRepository(SensorEntity).update({ id }, changes);
+      // Applied to readings from now on; the ones stored keep the correction they were stored with.
+      if (calibrationAudit.length > 0) {
+        const where = await this.benchLabel(tx, current.benchId);
+        await writeAuditEntry(
+          tx,
+          {
+            entityType: "sensor-calibration",
+            entityId: id,
+            action: "updated",
+            subject: `Sensor ${id}`,
+            siteId: where.siteId,
+            zoneId: where.zoneId,
+            benchId: current.benchId,
+            changes: calibrationAudit,
+            note: "Applies to readings received from now on",
+          },
+          nowMs,
+        );
+      }
       // A bench change is a move: the assignment history and the audit trail record it.
       if (input.benchId !== undefined && input.benchId !== current.benchId) await this.recordMove(tx, id, current.benchId, input.benchId, nowMs, nowMs);
     });

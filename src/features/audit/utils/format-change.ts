@@ -20,6 +20,8 @@ const FIELD_WORDS: Record<string, string> = {
   siteId: "site",
   benchId: "bench",
   archivedAtMs: "archived",
+  offset: "calibration offset",
+  gain: "calibration gain",
 };
 
 /** Partial on purpose: a kind added to the shared enum still shows (as its own word) before it has one here. */
@@ -45,6 +47,7 @@ const ENTITY_WORDS: Partial<Record<AuditEntityType, string>> & Record<string, st
   "bench-windows": "Bench windows",
   "window-preset": "Preset",
   "sensor-assignment": "Sensor on a bench",
+  "sensor-calibration": "Sensor calibration",
   "duty-rota": "Duty rota",
   batch: "Batch",
 };
