@@ -14,7 +14,7 @@ const OFFSET_WORDS: Record<WindowedQuantity, (limit: number) => string> = {
   "air.temperature": (l) => `${l} °C (${l * 1.8} °F)`,
   "air.humidity": (l) => `${l} % RH`,
   "medium.temperature": (l) => `${l} °C (${l * 1.8} °F)`,
-  "medium.moisture": (l) => `${l * 100} % VWC`,
+  "medium.moisture": (l) => `${Math.round(l * 100)} % VWC`,
 };
 
 function calibrationOf(quantity: WindowedQuantity) {

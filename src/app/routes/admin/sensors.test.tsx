@@ -174,4 +174,35 @@ describe("sensors page", () => {
     },
     ROUTE_TEST_TIMEOUT_MS,
   );
+  it(
+    "calibrates a probe: offsets typed in °F and % VWC are sent in °C and m³/m³, checked first with the shared schema",
+    async () => {
+      const api = sensorsApi();
+      renderApp("/sensors", api);
+      const row = await screen.findByRole("row", { name: /probe-1/ }, FIRST_PAINT);
+      fireEvent.click(within(row).getByRole("button", { name: "Calibrate probe-1" }));
+      const dialog = screen.getByRole("dialog", { name: "Calibrate probe-1" });
+      const air = within(within(dialog).getByRole("group", { name: "Air temperature" }));
+      const moisture = within(within(dialog).getByRole("group", { name: "Medium moisture" }));
+
+      fireEvent.change(air.getByLabelText(/Offset \(°F\)/), { target: { value: "20" } });
+      fireEvent.change(moisture.getByLabelText("Gain", { exact: false }), { target: { value: "abc" } });
+      fireEvent.click(within(dialog).getByRole("button", { name: "Save calibration" }));
+      expect(await within(dialog).findByText(/beyond ±5 °C \(9 °F\)/)).toBeTruthy();
+      expect(within(dialog).getByText("Enter a number")).toBeTruthy();
+      expect(api.sent("PATCH /api/sensors/probe-1")).toHaveLength(0);
+
+      fireEvent.change(air.getByLabelText(/Offset \(°F\)/), { target: { value: "-0.9" } });
+      fireEvent.change(moisture.getByLabelText(/Offset \(% VWC\)/), { target: { value: "2" } });
+      fireEvent.change(moisture.getByLabelText("Gain", { exact: false }), { target: { value: "1.1" } });
+      fireEvent.click(within(dialog).getByRole("button", { name: "Save calibration" }));
+      await waitFor(() => expect(api.sent("PATCH /api/sensors/probe-1")).toHaveLength(1));
+      const sent = api.sent("PATCH /api/sensors/probe-1")[0]?.body as { calibration: Record<string, { offset: number; gain: number }> };
+      expect(sent.calibration["air.temperature"]!.offset).toBeCloseTo(-0.5, 10);
+      expect(sent.calibration["medium.moisture"]).toEqual({ offset: 0.02, gain: 1.1 });
+      expect(sent.calibration["air.humidity"]).toEqual({ offset: 0, gain: 1 });
+      expect(await screen.findByText("Calibration of probe-1 saved: it applies to readings from now on")).toBeTruthy();
+    },
+    ROUTE_TEST_TIMEOUT_MS,
+  );
 });

@@ -20,6 +20,7 @@ import {
   type BenchChoices,
   type SensorState,
 } from "../utils/describe-sensor";
+import { CalibrateSensorDialog } from "./calibrate-sensor-dialog";
 import { MoveSensorDialog } from "./move-sensor-dialog";
 
 const STATE_CLASSES: Record<SensorState, string> = {
@@ -67,7 +68,7 @@ export function SensorsTable({ benchChoices, onRotated, onChanged }: SensorsTabl
 }
 
 type SensorRowProps = { sensor: SensorView; nowMs: number } & SensorsTableProps;
-type Open = "move" | "rotate" | "disable" | null;
+type Open = "move" | "calibrate" | "rotate" | "disable" | null;
 
 function SensorRow({ sensor, nowMs, benchChoices, onRotated, onChanged }: SensorRowProps) {
   const [open, setOpen] = useState<Open>(null);
@@ -114,7 +115,10 @@ function SensorRow({ sensor, nowMs, benchChoices, onRotated, onChanged }: Sensor
         <span className="break-all font-mono font-semibold text-ink lg:whitespace-nowrap lg:break-normal">{sensor.id}</span>
       </Td>
       <Td label="Bench">{describeBench(sensor)}</Td>
-      <Td label="Kind">{SENSOR_KIND_LABELS[sensor.kind]}</Td>
+      <Td label="Kind">
+        {SENSOR_KIND_LABELS[sensor.kind]}
+        {Object.keys(sensor.calibration).length > 0 && <span className="block text-base text-muted">Calibrated</span>}
+      </Td>
       <Td label="Last seen">
         <span title={sensor.lastSeenMs === null ? undefined : formatDateTime(sensor.lastSeenMs)}>{describeLastSeen(sensor.lastSeenMs, nowMs)}</span>
       </Td>
@@ -131,6 +135,9 @@ function SensorRow({ sensor, nowMs, benchChoices, onRotated, onChanged }: Sensor
           <Button onClick={() => setOpen("move")}>
             Move<span className="sr-only"> {sensor.id}</span>
           </Button>
+          <Button onClick={() => setOpen("calibrate")}>
+            Calibrate<span className="sr-only"> {sensor.id}</span>
+          </Button>
           <Button onClick={() => setOpen("rotate")}>
             New secret<span className="sr-only"> for {sensor.id}</span>
           </Button>
@@ -145,6 +152,7 @@ function SensorRow({ sensor, nowMs, benchChoices, onRotated, onChanged }: Sensor
           )}
         </div>
         {open === "move" && <MoveSensorDialog sensor={sensor} benchChoices={benchChoices} onClose={() => setOpen(null)} onMoved={onChanged} />}
+        {open === "calibrate" && <CalibrateSensorDialog sensor={sensor} onClose={() => setOpen(null)} />}
         {open === "rotate" && (
           <ConfirmDialog
             title={`Make a new secret for ${sensor.id}?`}
