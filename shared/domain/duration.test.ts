@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { parseDurationMs } from "./duration.js";
+import { describeDurationS, parseDurationMs } from "./duration.js";
 
 describe("parseDurationMs", () => {
   it.each([
@@ -13,4 +13,16 @@ describe("parseDurationMs", () => {
   ])("%s is %d ms", (text, ms) => expect(parseDurationMs(text)).toBe(ms));
 
   it.each(["", "-5s", "ten minutes", "5 weeks", "1e3s"])("refuses %j", (text) => expect(parseDurationMs(text)).toBeUndefined());
+});
+
+describe("describeDurationS", () => {
+  it.each([
+    [45, "45 seconds"],
+    [60, "1 minute"],
+    [20 * 60, "20 minutes"],
+    [3600, "1 hour"],
+    [5400, "1 hour 30 minutes"],
+    [12 * 3600, "12 hours"],
+    [3661, "1 hour 1 minute"],
+  ])("%d s is %s", (seconds, words) => expect(describeDurationS(seconds)).toBe(words));
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { EVERY_DAY, localWeekdayMinute, shiftCovers, usersOnDuty, type RotaShift } from "./duty-rota.js";
+import { EVERY_DAY, clockTime, describeWeekdays, localWeekdayMinute, shiftCovers, usersOnDuty, type RotaShift } from "./duty-rota.js";
 
 const night: RotaShift = { zoneId: null, userId: 7, weekdays: EVERY_DAY, startMinute: 18 * 60, endMinute: 7 * 60, isFallback: false };
 const fridayNight: RotaShift = { ...night, userId: 8, weekdays: 1 << 5 };
@@ -34,5 +34,22 @@ describe("duty rota", () => {
     const zone2Only: RotaShift = { ...night, zoneId: 2, userId: 11 };
     expect(usersOnDuty([night, zone2Only], 2, Date.parse("2026-12-05T03:00:00Z"), "UTC").sort((a, b) => a - b)).toEqual([7, 11]);
     expect(usersOnDuty([zone2Only], 1, Date.parse("2026-12-05T03:00:00Z"), "UTC")).toEqual([]);
+  });
+});
+
+describe("shift words", () => {
+  it("names the days (bit 0 = Sunday) Monday first, runs of three or more as a range", () => {
+    expect(describeWeekdays(EVERY_DAY)).toBe("Every day");
+    expect(describeWeekdays(0b0111110)).toBe("Mon–Fri");
+    expect(describeWeekdays(0b1000001)).toBe("Sat, Sun");
+    expect(describeWeekdays(0b0011101)).toBe("Tue–Thu, Sun");
+    expect(describeWeekdays(0)).toBe("No days");
+  });
+
+  it("writes a minute of the day on a 24-hour clock, the end of the day as 24:00", () => {
+    expect(clockTime(0)).toBe("00:00");
+    expect(clockTime(22 * 60)).toBe("22:00");
+    expect(clockTime(6 * 60 + 5)).toBe("06:05");
+    expect(clockTime(1440)).toBe("24:00");
   });
 });

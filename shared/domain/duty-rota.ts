@@ -44,3 +44,42 @@ export function usersOnDuty(shifts: readonly RotaShift[], zoneId: number, timeMs
 }
 
 export const EVERY_DAY = 0b1111111;
+
+/** The week in the order the rota shows it, Monday first; `bit` is the shift's weekday bit (0 = Sunday). */
+export const WEEK = [
+  { bit: 1, short: "Mon", long: "Monday" },
+  { bit: 2, short: "Tue", long: "Tuesday" },
+  { bit: 3, short: "Wed", long: "Wednesday" },
+  { bit: 4, short: "Thu", long: "Thursday" },
+  { bit: 5, short: "Fri", long: "Friday" },
+  { bit: 6, short: "Sat", long: "Saturday" },
+  { bit: 0, short: "Sun", long: "Sunday" },
+] as const;
+
+export function hasDay(weekdays: number, bit: number): boolean {
+  return (weekdays & (1 << bit)) !== 0;
+}
+
+/** A shift's days (bit 0 = Sunday) in plain words, Monday first: "Every day", "Mon–Fri", "Sat, Sun", "Tue–Thu, Sun". */
+export function describeWeekdays(weekdays: number): string {
+  if ((weekdays & EVERY_DAY) === EVERY_DAY) return "Every day";
+  if ((weekdays & EVERY_DAY) === 0) return "No days";
+  const runs: (typeof WEEK)[number][][] = [];
+  for (const day of WEEK) {
+    if (!hasDay(weekdays, day.bit)) continue;
+    const last = runs.at(-1);
+    const previous = last?.at(-1);
+    if (last && previous && WEEK.indexOf(previous) === WEEK.indexOf(day) - 1) last.push(day);
+    else runs.push([day]);
+  }
+  return runs.map((run) => (run.length >= 3 ? `${run[0]!.short}–${run.at(-1)!.short}` : run.map((d) => d.short).join(", "))).join(", ");
+}
+
+/**
+ * A minute of the day (0–1440, local to the site) on a 24-hour clock: 1110 → "18:30". The end of
+ * the day, 1440, is "24:00", so an all-day shift reads 00:00 to 24:00. For records that must read
+ * the same for everyone (the audit trail); the rota page shows times in the reader's locale.
+ */
+export function clockTime(minute: number): string {
+  return `${String(Math.floor(minute / 60)).padStart(2, "0")}:${String(minute % 60).padStart(2, "0")}`;
+}

@@ -1,41 +1,11 @@
-import { EVERY_DAY } from "../../../../shared/domain/duty-rota.js";
 import type { DutyShift } from "../../../../shared/schemas/alerts.js";
 
-/** The week in the order the rota shows it, Monday first; `bit` is the shift's weekday bit (0 = Sunday). */
-export const WEEK = [
-  { bit: 1, short: "Mon", long: "Monday" },
-  { bit: 2, short: "Tue", long: "Tuesday" },
-  { bit: 3, short: "Wed", long: "Wednesday" },
-  { bit: 4, short: "Thu", long: "Thursday" },
-  { bit: 5, short: "Fri", long: "Friday" },
-  { bit: 6, short: "Sat", long: "Saturday" },
-  { bit: 0, short: "Sun", long: "Sunday" },
-] as const;
+// The week and its words are shared: the audit trail names a shift's days the same way.
+export { WEEK, describeWeekdays, hasDay } from "../../../../shared/domain/duty-rota.js";
 
 export const WEEKDAYS_MASK = 0b0111110;
 export const WEEKEND_MASK = 0b1000001;
 export const DAY_MINUTES = 24 * 60;
-
-export function hasDay(weekdays: number, bit: number): boolean {
-  return (weekdays & (1 << bit)) !== 0;
-}
-
-/** "Every day", "Mon–Fri", "Sat, Sun", "Mon, Wed, Fri", "Tue–Thu, Sun". */
-export function describeWeekdays(weekdays: number): string {
-  if ((weekdays & EVERY_DAY) === EVERY_DAY) return "Every day";
-  if (weekdays === 0) return "No days";
-  const runs: (typeof WEEK)[number][][] = [];
-  for (const day of WEEK) {
-    if (!hasDay(weekdays, day.bit)) continue;
-    const last = runs.at(-1);
-    const previous = last?.at(-1);
-    if (last && previous && WEEK.indexOf(previous) === WEEK.indexOf(day) - 1) last.push(day);
-    else runs.push([day]);
-  }
-  return runs
-    .map((run) => (run.length >= 3 ? `${run[0]!.short}–${run.at(-1)!.short}` : run.map((d) => d.short).join(", ")))
-    .join(", ");
-}
 
 /** A minute of the day as a clock time in the reader's locale ("6:00 PM" or "18:00"); 1440 is midnight. */
 export function formatMinuteOfDay(minute: number): string {
