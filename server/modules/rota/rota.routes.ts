@@ -16,13 +16,13 @@ export function rotaRoutes(table: RouteTable, rota: RotaService): Router {
     res.json({ users: await rota.candidates() });
   });
   r.post("/duty-rota/shifts", ROTA_EDITORS, async (req, res) => {
-    res.status(201).json({ shift: await rota.create(dutyShiftInputSchema.parse(req.body)) });
+    res.status(201).json({ shift: await rota.create(dutyShiftInputSchema.parse(req.body), req.principal!) });
   });
   r.put("/duty-rota/shifts/:id", ROTA_EDITORS, async (req, res) => {
-    res.json({ shift: await rota.replace(idParams.parse(req.params).id, dutyShiftInputSchema.parse(req.body)) });
+    res.json({ shift: await rota.replace(idParams.parse(req.params).id, dutyShiftInputSchema.parse(req.body), req.principal!) });
   });
   r.delete("/duty-rota/shifts/:id", ROTA_EDITORS, async (req, res) => {
-    await rota.remove(idParams.parse(req.params).id);
+    await rota.remove(idParams.parse(req.params).id, req.principal!);
     res.status(204).end();
   });
   return r.router;

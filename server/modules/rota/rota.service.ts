@@ -1,26 +1,78 @@
-import { In, IsNull, type DataSource } from "typeorm";
-import { usersOnDuty } from "../../../shared/domain/duty-rota.js";
+import { In, IsNull, type DataSource, type EntityManager } from "typeorm";
+import { clockTime, describeWeekdays, usersOnDuty } from "../../../shared/domain/duty-rota.js";
+import type { AuditChange } from "../../../shared/schemas/audit.js";
 import type { DutyRotaResponse, DutyShift, DutyShiftInput } from "../../../shared/schemas/alerts.js";
 import { DutyShiftEntity, type DutyShiftRecord } from "../../db/entities/alert.entity.js";
 import { SiteEntity } from "../../db/entities/site.entity.js";
 import { UserEntity } from "../../db/entities/user.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
+import type { Principal } from "../../lib/auth.js";
 import { AppError, notFound } from "../../lib/errors.js";
+import { auditChange, writeAuditEntry } from "../audit/audit.service.js";
 
-/** The duty rota: who is mailed about which zone, when. */
+const EVERY_ZONE = "Every zone";
+
+/** A shift's fields as the audit trail records them, each with a label that reads without the rota page. */
+interface ShiftWords {
+  record: Omit<DutyShiftRecord, "id">;
+  userName: string;
+  /** null: every zone. */
+  zoneName: string | null;
+  siteId: number | null;
+}
+
+/** The changed fields of a shift, old → new (before null: created; after null: deleted). */
+function shiftChanges(before: ShiftWords | null, after: ShiftWords | null): AuditChange[] {
+  const changes: AuditChange[] = [];
+  const add = (field: string, kind: AuditChange["kind"], pick: (s: ShiftWords) => { value: number | boolean | null; label: string | null }) => {
+    const old = before ? pick(before) : null;
+    const now = after ? pick(after) : null;
+    if (old && now && old.value === now.value) return;
+    changes.push(auditChange(field, kind, old?.value ?? null, now?.value ?? null, { oldLabel: old?.label ?? null, newLabel: now?.label ?? null }));
+  };
+  add("userId", "reference", (s) => ({ value: s.record.userId, label: s.userName }));
+  add("zoneId", "reference", (s) => ({ value: s.record.zoneId, label: s.zoneName ?? EVERY_ZONE }));
+  add("weekdays", "number", (s) => ({ value: s.record.weekdays, label: describeWeekdays(s.record.weekdays) }));
+  add("startMinute", "number", (s) => ({ value: s.record.startMinute, label: clockTime(s.record.startMinute) }));
+  add("endMinute", "number", (s) => ({ value: s.record.endMinute, label: clockTime(s.record.endMinute) }));
+  add("isFallback", "boolean", (s) => ({ value: s.record.isFallback, label: null }));
+  return changes;
+}
+
+/** "Marisol Ortega · Every zone", "Marisol Ortega · House 1 · Fig cuttings". */
+function shiftSubject(words: ShiftWords): string {
+  return `${words.userName} · ${words.zoneName ?? EVERY_ZONE}`;
+}
+
+/** The duty rota: who is mailed about which zone, when. Every change is audited in the transaction that makes it. */
 export class RotaService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly now: () => number = Date.now,
   ) {}
 
-  private async assertRefs(input: DutyShiftInput): Promise<void> {
+  private async assertRefs(input: DutyShiftInput): Promise<Omit<ShiftWords, "record">> {
     const user = await this.dataSource.getRepository(UserEntity).findOneBy({ id: input.userId });
     if (!user || user.disabled) throw new AppError("user-not-found", "Choose an active user", 400, [{ path: "userId", message: "Choose an active user" }]);
     if (user.role === "viewer") throw new AppError("viewer-cannot-be-on-duty", "A viewer cannot acknowledge, so cannot be on duty", 400, [{ path: "userId", message: "Viewers cannot acknowledge alerts" }]);
-    if (input.zoneId !== null && !(await this.dataSource.getRepository(ZoneEntity).existsBy({ id: input.zoneId }))) {
+    const zone = input.zoneId === null ? null : await this.dataSource.getRepository(ZoneEntity).findOneBy({ id: input.zoneId });
+    if (input.zoneId !== null && !zone) {
       throw new AppError("zone-not-found", "Choose an existing zone", 400, [{ path: "zoneId", message: "Choose an existing zone" }]);
     }
+    return { userName: user.name, zoneName: zone?.name ?? null, siteId: zone?.siteId ?? null };
+  }
+
+  /** A stored shift with the names the audit trail needs (a person or zone gone since reads as its id). */
+  private async words(tx: EntityManager, shift: DutyShiftRecord): Promise<ShiftWords> {
+    const user = await tx.getRepository(UserEntity).findOneBy({ id: shift.userId });
+    const zone = shift.zoneId === null ? null : await tx.getRepository(ZoneEntity).findOneBy({ id: shift.zoneId });
+    const { id: _id, ...record } = shift;
+    return {
+      record,
+      userName: user?.name ?? `User ${shift.userId}`,
+      zoneName: shift.zoneId === null ? null : (zone?.name ?? `Zone ${shift.zoneId}`),
+      siteId: zone?.siteId ?? null,
+    };
   }
 
   private async views(rows: DutyShiftRecord[]): Promise<DutyShift[]> {
@@ -54,21 +106,76 @@ export class RotaService {
     return users.flatMap((u) => (u.role === "viewer" ? [] : [{ id: u.id, name: u.name, role: u.role }]));
   }
 
-  async create(input: DutyShiftInput): Promise<DutyShift> {
-    await this.assertRefs(input);
-    const saved = await this.dataSource.getRepository(DutyShiftEntity).save({ ...input });
+  async create(input: DutyShiftInput, actor: Principal): Promise<DutyShift> {
+    const refs = await this.assertRefs(input);
+    const atMs = this.now();
+    const saved = await this.dataSource.transaction(async (tx) => {
+      const row = await tx.getRepository(DutyShiftEntity).save({ ...input });
+      const after: ShiftWords = { record: { ...input }, ...refs };
+      await writeAuditEntry(
+        tx,
+        { entityType: "duty-rota", entityId: row.id, action: "created", subject: shiftSubject(after), siteId: refs.siteId, zoneId: input.zoneId, changes: shiftChanges(null, after) },
+        atMs,
+        actor,
+      );
+      return row;
+    });
     return (await this.views([saved]))[0]!;
   }
 
-  async replace(id: number, input: DutyShiftInput): Promise<DutyShift> {
+  async replace(id: number, input: DutyShiftInput, actor: Principal): Promise<DutyShift> {
     if (!(await this.dataSource.getRepository(DutyShiftEntity).existsBy({ id }))) throw notFound("shift-not-found", `There is no shift ${id}`);
-    await this.assertRefs(input);
-    await this.dataSource.getRepository(DutyShiftEntity).update({ id }, input);
+    const refs = await this.assertRefs(input);
+    const atMs = this.now();
+    await this.dataSource.transaction(async (tx) => {
+      const row = await tx.getRepository(DutyShiftEntity).findOneBy({ id });
+      if (!row) throw notFound("shift-not-found", `There is no shift ${id}`);
+      const before = await this.words(tx, row);
+      const after: ShiftWords = { record: { ...input }, ...refs };
+      const changes = shiftChanges(before, after);
+      if (changes.length === 0) return;
+      await tx.getRepository(DutyShiftEntity).update({ id }, input);
+      const movedZone = before.record.zoneId !== input.zoneId;
+      await writeAuditEntry(
+        tx,
+        {
+          entityType: "duty-rota",
+          entityId: id,
+          action: "updated",
+          subject: shiftSubject(after),
+          siteId: refs.siteId,
+          zoneId: input.zoneId,
+          previousZoneId: movedZone ? before.record.zoneId : null,
+          changes,
+        },
+        atMs,
+        actor,
+      );
+    });
     return (await this.views(await this.dataSource.getRepository(DutyShiftEntity).find({ where: { id: In([id]) } })))[0]!;
   }
 
-  async remove(id: number): Promise<void> {
-    const result = await this.dataSource.getRepository(DutyShiftEntity).delete({ id });
-    if (!result.affected) throw notFound("shift-not-found", `There is no shift ${id}`);
+  async remove(id: number, actor: Principal): Promise<void> {
+    const atMs = this.now();
+    await this.dataSource.transaction(async (tx) => {
+      const row = await tx.getRepository(DutyShiftEntity).findOneBy({ id });
+      if (!row) throw notFound("shift-not-found", `There is no shift ${id}`);
+      const before = await this.words(tx, row);
+      await tx.getRepository(DutyShiftEntity).delete({ id });
+      await writeAuditEntry(
+        tx,
+        {
+          entityType: "duty-rota",
+          entityId: id,
+          action: "deleted",
+          subject: shiftSubject(before),
+          siteId: before.siteId,
+          zoneId: row.zoneId,
+          changes: shiftChanges(before, null),
+        },
+        atMs,
+        actor,
+      );
+    });
   }
 }
