@@ -2,9 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connectSensor, startTestServer, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
+/** Bytes per second one connection may send (the default, pinned: the flooding test measures against it); 4× that as a burst. */
+const RATE = 64 * 1024;
 
 beforeAll(async () => {
-  server = await startTestServer();
+  server = await startTestServer({ MQTT_BYTES_PER_SECOND: String(RATE) });
 });
 
 afterAll(async () => {
@@ -41,6 +43,8 @@ describe("broker limits", () => {
 
   it("a flooding client is slowed down while another sensor's readings are still acknowledged promptly", async () => {
     const [flooder, honest] = server.credentials.filter((c) => c.kind === "combined");
+    const messagesBefore = server.metrics.mqttMessages.get();
+    const floodConnected = Date.now();
     const flood = await connectSensor(server, flooder!);
     const topic = `benchwarden/v1/sensors/${flooder!.id}/readings`;
     const padding = "p".repeat(4000);
@@ -62,7 +66,13 @@ describe("broker limits", () => {
       await new Promise((r) => setTimeout(r, 100));
     }
     stop = true;
+    // What reached the broker from the flooder: no more than the burst and the rate since it
+    // connected allow (plus one socket read held back at most), far less than it offered.
+    const floodThrough = server.metrics.mqttMessages.get() - messagesBefore - latencies.length;
+    const allowedBytes = 4 * RATE + (RATE * (Date.now() - floodConnected)) / 1000 + 64 * 1024;
+    const floodPacketBytes = topic.length + JSON.stringify([{ n: "battery", u: "%EL", v: 50, t: Date.now() / 1000, vs: padding }]).length;
     await flooding;
+    expect(floodThrough).toBeLessThanOrEqual(allowedBytes / floodPacketBytes);
     expect(server.metrics.mqttRefused.get({ reason: "rate-limited" })).toBeGreaterThan(0);
     expect(Math.max(...latencies)).toBeLessThan(500);
     await good.endAsync();
