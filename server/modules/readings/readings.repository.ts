@@ -62,6 +62,7 @@ export class ReadingsRepository {
   private readonly insertBatch: (rows: ReadingRow[]) => ReadingRow[];
   private readonly upsertRollup: BetterSqlite3.Statement;
   private readonly selectStale: BetterSqlite3.Statement;
+  private readonly selectRawGone: BetterSqlite3.Statement;
   private readonly rebuildStaleHours: (hours: { benchId: number; quantity: Quantity; hourMs: number }[]) => void;
 
   constructor(db: BetterSqlite3.Database) {
@@ -117,6 +118,14 @@ export class ReadingsRepository {
     this.selectZoneSeries = db.prepare(zoneSeriesSql);
     this.explainZoneSeries = db.prepare(`EXPLAIN QUERY PLAN ${zoneSeriesSql}`);
     this.selectStale = db.prepare(`SELECT bench_id AS benchId, quantity, hour_ms AS hourMs FROM reading_rollup_stale LIMIT 250`);
+    // A minute of any of the series whose 1-minute rollup counts more readings than remain raw:
+    // retention (modules/retention) deleted its raw readings, always a whole minute at a time.
+    this.selectRawGone = db.prepare(
+      `SELECT EXISTS (SELECT 1 FROM reading_rollup e
+         WHERE e.bench_id IN (SELECT value FROM json_each(@benchIds)) AND e.quantity IN (SELECT value FROM json_each(@quantities))
+           AND e.resolution_ms = ${MINUTE_MS} AND e.start_ms = @minuteMs
+           AND e.count > (SELECT COUNT(*) FROM reading x WHERE x.bench_id = e.bench_id AND x.quantity = e.quantity AND x.time_ms >= e.start_ms AND x.time_ms < e.start_ms + ${MINUTE_MS})) AS gone`,
+    );
     // Naming every resolution lets each delete walk the primary key (bench, quantity, resolution,
     // start) to the hour; without it SQLite scans the series' whole history once per stale hour.
     const deleteHour = db.prepare(
@@ -202,8 +211,8 @@ export class ReadingsRepository {
     }
   }
 
-  /** Rebuild rollup hours a back-dated sensor move made stale (normally there are none). */
-  private refreshStaleRollups(): void {
+  /** Rebuild rollup hours a back-dated sensor move made stale (normally there are none); exports call it before reading rollups. */
+  refreshStaleRollups(): void {
     for (let round = 0; round < 100; round++) {
       const stale = this.selectStale.all() as { benchId: number; quantity: Quantity; hourMs: number }[];
       if (stale.length === 0) return;
@@ -218,7 +227,7 @@ export class ReadingsRepository {
    */
   series(benchId: number, quantity: Quantity, fromMs: number, toMs: number, bucketMs: number): SeriesPoint[] {
     this.refreshStaleRollups();
-    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs, ...tierBounds(fromMs, toMs, bucketMs) }) as {
+    const rows = this.selectSeries.all({ benchId, quantity, fromMs, toMs, bucketMs, ...this.tierBoundsOverGoneMinutes([benchId], [quantity], fromMs, toMs, bucketMs) }) as {
       bucket: number;
       min: number;
       mean: number;
@@ -262,7 +271,28 @@ export class ReadingsRepository {
   }
 
   private zoneSeriesParams(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number) {
-    return { benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), fromMs, toMs, bucketMs, ...tierBounds(fromMs, toMs, bucketMs) };
+    return { benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), fromMs, toMs, bucketMs, ...this.tierBoundsOverGoneMinutes(benchIds, quantities, fromMs, toMs, bucketMs) };
+  }
+
+  /**
+   * tierBounds, except that a range end inside a minute whose raw readings retention deleted reads
+   * that whole minute from its 1-minute rollup (the raw tier at that end becomes empty), rather than
+   * lose the readings in it. Like every rolled-up minute it goes to the bucket its start falls in,
+   * and it may hold up to 59 s of readings just outside the range.
+   */
+  private tierBoundsOverGoneMinutes(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number) {
+    const isGone = (minuteMs: number) =>
+      (this.selectRawGone.get({ benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), minuteMs }) as { gone: number }).gone === 1;
+    const startMinuteMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
+    const endMinuteMs = Math.floor(toMs / MINUTE_MS) * MINUTE_MS;
+    const fromEdgeMs = startMinuteMs < fromMs && isGone(startMinuteMs) ? startMinuteMs : fromMs;
+    let toEdgeMs = toMs;
+    if (endMinuteMs < toMs) {
+      // A range inside one minute whose raw readings are gone reads that minute whole.
+      if (endMinuteMs === startMinuteMs && fromEdgeMs < fromMs) toEdgeMs = endMinuteMs + MINUTE_MS;
+      else if (endMinuteMs >= fromMs && isGone(endMinuteMs)) toEdgeMs = endMinuteMs + MINUTE_MS;
+    }
+    return tierBounds(fromEdgeMs, toEdgeMs, bucketMs);
   }
 
   /** The newest reading per sensor and quantity, for every sensor on a bench. */
