@@ -1,6 +1,13 @@
 import { existsSync } from "node:fs";
 import { z } from "zod";
 import { parseDurationMs } from "../../shared/domain/duration.js";
+import { MAX_ASSIGNMENT_BACKDATE_MS } from "../../shared/schemas/layout.js";
+
+/**
+ * The shortest raw-reading retention: longer than a probe move may be dated back (7 days), so a
+ * re-filing can never mark an hour stale whose raw readings are gone (its rollups are rebuilt from them).
+ */
+export const MIN_READING_RETENTION_DAYS = Math.floor(MAX_ASSIGNMENT_BACKDATE_MS / 86_400_000) + 1;
 
 const port = z.coerce.number().int().min(0).max(65535);
 const flag = z.enum(["0", "1"]).transform((v) => v === "1");
@@ -44,6 +51,13 @@ export const envSchema = z.object({
   ALERT_RENOTIFY_EVERY: duration("30m").describe("While raised and unacknowledged, the person on duty is mailed again this often"),
   ACK_LINK_LIFETIME: duration("24h").describe("How long an e-mailed acknowledge link works"),
   MAIL_RETRY_FIRST: duration("5s").describe("Wait before the first retry of an e-mail the relay refused; doubles up to 5 min"),
+  READING_RETENTION_DAYS: z.coerce
+    .number()
+    .int()
+    .refine((d) => d === 0 || (d >= MIN_READING_RETENTION_DAYS && d <= 36_500), `must be 0 (keep forever) or ${MIN_READING_RETENTION_DAYS} to 36500 days`)
+    .default(400)
+    .describe("Raw readings older than this many days are deleted once their rollups exist (never an open batch's); 0 = keep forever"),
+  READING_RETENTION_CHUNK_ROWS: z.coerce.number().int().min(100).max(1_000_000).default(10_000).describe("Most raw readings one retention transaction deletes; ingest waits at most one such transaction"),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info").describe("pino log level"),
 });
 

@@ -44,6 +44,13 @@ export class Metrics {
   readonly mailSent = new Counter(this.registry, "benchwarden_mail_sent_total", "E-mails accepted by the mail relay");
   readonly mailFailed = new Counter(this.registry, "benchwarden_mail_failed_attempts_total", "E-mail attempts that failed (retried later)");
   readonly alertTransitions = new Counter(this.registry, "benchwarden_alert_transitions_total", "Alert life-cycle steps, by kind and step", ["kind", "step"]);
+  readonly retentionDeleted = new Counter(this.registry, "benchwarden_retention_deleted_readings_total", "Raw readings deleted by retention (their rollups are kept)");
+  readonly retentionChunkSeconds = new client.Histogram({
+    name: "benchwarden_retention_chunk_seconds",
+    help: "Time one retention transaction held the database writer",
+    buckets: [0.001, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1],
+    registers: [this.registry],
+  });
   readonly batchRows = new client.Histogram({
     name: "benchwarden_ingest_batch_rows",
     help: "Readings per ingest transaction",
