@@ -338,7 +338,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       layout: new LayoutService(dataSource, windows, windowSettings),
       windowSettings,
       audit: new AuditService(dataSource),
-      exports: new ExportsService(dataSource),
+      exports: new ExportsService(dataSource, Date.now, { refreshRollups: () => repository.refreshStaleRollups(), retentionDays: env.READING_RETENTION_DAYS }),
       ...createPropagation({ dataSource, windows, alerts: alertsService, mailer: outbox, logger, databasePath: env.DATABASE_PATH, silentAfterMs: env.SENSOR_SILENT_AFTER, appUrl: () => resolvedAppUrl }),
       zones: new ZonesService(dataSource, repository, windows, alertsService),
       alerts: alertsService,

@@ -8,6 +8,7 @@ import {
   type ReadingsExportQuery,
 } from "../../../shared/schemas/exports.js";
 import { QUANTITIES, type Quantity } from "../../../shared/schemas/quantities.js";
+import { MIN_READING_RETENTION_DAYS } from "../../config/env.js";
 import { rawDatabase } from "../../db/data-source.js";
 import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
 import { SiteEntity } from "../../db/entities/site.entity.js";
@@ -15,6 +16,9 @@ import { ZoneEntity, type Zone } from "../../db/entities/zone.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
 
 const DAY_MS = 24 * 3600 * 1000;
+const MINUTE_MS = 60_000;
+/** Rollup resolutions kept at ingest (readings.repository.ts), coarsest first. */
+const ROLLUP_RESOLUTIONS_MS = [3_600_000, 900_000, MINUTE_MS];
 /** Raw rows are read six hours at a time, so memory stays small however long the range. */
 const RAW_CHUNK_MS = 6 * 3600 * 1000;
 /** Rolled-up rows are read this many buckets at a time. */
@@ -64,15 +68,28 @@ interface BucketRow {
   n: number;
 }
 
-/** CSV exports of stored readings (issue 7 §6), read in chunks from the reading table. */
+export interface ExportsOptions {
+  /** Rebuilds rollup hours a back-dated probe move made stale, before rollups are read. */
+  refreshRollups?: () => void;
+  /** READING_RETENTION_DAYS, named when a raw export asks for readings retention removed. */
+  retentionDays?: number;
+}
+
+/**
+ * CSV exports of stored readings (issue 7 §6), read in chunks: raw exports from the reading table,
+ * rolled-up exports from the rollups (which outlive the raw readings, see modules/retention).
+ */
 export class ExportsService {
   private readonly db: BetterSqlite3.Database;
   private readonly selectRaw: BetterSqlite3.Statement;
   private readonly selectBuckets: BetterSqlite3.Statement;
+  private readonly countRaw: BetterSqlite3.Statement;
+  private readonly countRolledUp: BetterSqlite3.Statement;
 
   constructor(
     private readonly dataSource: DataSource,
     private readonly now: () => number = Date.now,
+    private readonly options: ExportsOptions = {},
   ) {
     this.db = rawDatabase(dataSource);
     // quantity IN (…) lets the (bench_id, quantity, time_ms) index serve the time range.
@@ -81,14 +98,45 @@ export class ExportsService {
       `SELECT sensor_id AS sensorId, quantity, time_ms AS timeMs, value FROM reading
         WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND time_ms >= @fromMs AND time_ms < @toMs`,
     );
-    // Buckets on UTC multiples of the interval; integer cast because JS numbers bind as REAL (STACK.md).
+    // Buckets on UTC multiples of the interval, from the epoch-aligned rollups of the coarsest
+    // resolution that divides it; integer cast because JS numbers bind as REAL (STACK.md).
     this.selectBuckets = this.db.prepare(
-      `SELECT CAST(time_ms / @bucketMs AS INTEGER) AS bucket, quantity,
-              MIN(value) AS min, AVG(value) AS mean, MAX(value) AS max, COUNT(*) AS n
-         FROM reading
-        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND time_ms >= @fromMs AND time_ms < @toMs
+      `SELECT CAST(start_ms / @bucketMs AS INTEGER) AS bucket, quantity,
+              MIN(min) AS min, SUM(sum) / SUM(count) AS mean, MAX(max) AS max, SUM(count) AS n
+         FROM reading_rollup
+        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND resolution_ms = @resolutionMs AND start_ms >= @fromMs AND start_ms < @toMs
         GROUP BY bucket, quantity`,
     );
+    // Raw readings of a stretch against what its 1-minute rollups hold: fewer raw means retention
+    // deleted some (a reading is stored with its rollups in one transaction).
+    this.countRaw = this.db.prepare(
+      `SELECT COUNT(*) AS n FROM reading WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND time_ms >= @fromMs AND time_ms < @toMs`,
+    );
+    this.countRolledUp = this.db.prepare(
+      `SELECT COALESCE(SUM(count), 0) AS n FROM reading_rollup
+        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND resolution_ms = ${MINUTE_MS} AND start_ms >= @fromMs AND start_ms < @toMs`,
+    );
+  }
+
+  /**
+   * Refuses a raw export of a stretch whose raw readings retention has deleted, rather than
+   * answering with a file that silently lacks them. Retention never deletes readings younger than
+   * MIN_READING_RETENTION_DAYS, so only the part of the range older than that is checked.
+   */
+  private assertRawKept(benches: Bench[], fromMs: number, toMs: number): void {
+    const checkFromMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
+    const checkToMs = Math.ceil(Math.min(toMs, this.now() - MIN_READING_RETENTION_DAYS * DAY_MS) / MINUTE_MS) * MINUTE_MS;
+    if (checkFromMs >= checkToMs) return;
+    this.options.refreshRollups?.();
+    const isPruned = benches.some((bench) => {
+      const args = { benchId: bench.id, fromMs: checkFromMs, toMs: checkToMs };
+      return (this.countRolledUp.get(args) as { n: number }).n > (this.countRaw.get(args) as { n: number }).n;
+    });
+    if (!isPruned) return;
+    const days = this.options.retentionDays ?? 0;
+    const kept = days > 0 ? `Raw readings are kept for ${days} days (READING_RETENTION_DAYS)` : "An earlier retention setting deleted raw readings of this range";
+    const message = `${kept}; part of this range is kept only as 1-minute summaries. Export it at the 1-minute interval or longer.`;
+    throw new AppError("raw-readings-not-kept", message, 400, [{ path: "interval", message }]);
   }
 
   async readingsCsv(query: ReadingsExportQuery): Promise<CsvExport> {
@@ -103,6 +151,7 @@ export class ExportsService {
     const bucketMs = raw ? 0 : EXPORT_INTERVAL_MS[query.interval as keyof typeof EXPORT_INTERVAL_MS];
     const fromMs = raw ? fromMsAsked : Math.floor(fromMsAsked / bucketMs) * bucketMs;
     const toMs = raw ? toMsAsked : Math.ceil(toMsAsked / bucketMs) * bucketMs;
+    const resolutionMs = ROLLUP_RESOLUTIONS_MS.find((r) => bucketMs % r === 0) ?? MINUTE_MS;
 
     const unit = (q: Quantity): string => {
       if (isTemperature(q)) return query.temperatureUnit === "F" ? "°F" : "°C";
@@ -121,6 +170,9 @@ export class ExportsService {
     const header = raw
       ? ["time (UTC)", `time (${timeZone})`, "zone", "bench", "sensor", ...QUANTITIES.map((q) => `${q} (${unit(q)})`)]
       : ["time (UTC)", `time (${timeZone})`, "zone", "bench", ...QUANTITIES.flatMap((q) => [`${q} mean (${unit(q)})`, `${q} min (${unit(q)})`, `${q} max (${unit(q)})`, `${q} readings`])];
+
+    if (raw) this.assertRawKept(benches, fromMs, toMs);
+    else this.options.refreshRollups?.();
 
     const zoneName = new Map(zone.map((z) => [z.id, z.name]));
     const order = new Map(benches.map((b, i) => [b.id, i]));
@@ -158,7 +210,7 @@ export class ExportsService {
         const rows: { timeMs: number; bench: Bench; byQuantity: Map<Quantity, BucketRow> }[] = [];
         for (const bench of benches) {
           const byBucket = new Map<number, (typeof rows)[number]>();
-          for (const r of selectBuckets.all({ benchId: bench.id, fromMs: start, toMs: end, bucketMs }) as BucketRow[]) {
+          for (const r of selectBuckets.all({ benchId: bench.id, fromMs: start, toMs: end, bucketMs, resolutionMs }) as BucketRow[]) {
             let row = byBucket.get(r.bucket);
             if (!row) byBucket.set(r.bucket, (row = { timeMs: r.bucket * bucketMs, bench, byQuantity: new Map() }));
             row.byQuantity.set(r.quantity, r);
