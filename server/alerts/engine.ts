@@ -21,6 +21,7 @@ import type { LayoutCache } from "./layout-cache.js";
 
 export interface AlertEngineConfig {
   silentAfterMs: number;
+  /** The defaults (ALERT_ESCALATE_AFTER, ALERT_RENOTIFY_EVERY); a site's own settings come first. */
   escalateAfterMs: number;
   renotifyEveryMs: number;
 }
@@ -278,16 +279,28 @@ export class AlertEngine {
   private async escalateAndRemind(tx: EntityManager, nowMs: number, changed: number[]): Promise<void> {
     const raised = await tx.getRepository(AlertEntity).find({ where: { phase: "raised" } });
     for (const alert of raised) {
-      if (alert.escalatedAtMs === null && alert.raisedAtMs !== null && nowMs - alert.raisedAtMs >= this.config.escalateAfterMs) {
+      const { escalateAfterMs, renotifyEveryMs } = this.timingOfZone(alert.zoneId);
+      if (alert.escalatedAtMs === null && alert.raisedAtMs !== null && nowMs - alert.raisedAtMs >= escalateAfterMs) {
         await this.notice(tx, alert, "escalation", nowMs);
         await tx.getRepository(AlertEntity).update({ id: alert.id }, { escalatedAtMs: nowMs, updatedAtMs: nowMs });
         changed.push(alert.id);
       }
-      if (alert.lastNotifiedMs !== null && nowMs - alert.lastNotifiedMs >= this.config.renotifyEveryMs) {
+      if (alert.lastNotifiedMs !== null && nowMs - alert.lastNotifiedMs >= renotifyEveryMs) {
         await this.notice(tx, alert, "reminder", nowMs);
         await tx.getRepository(AlertEntity).update({ id: alert.id }, { lastNotifiedMs: nowMs, updatedAtMs: nowMs });
       }
     }
+  }
+
+  /** The zone's site's escalation and reminder times (set on the duty rota page), else the server's defaults. */
+  private timingOfZone(zoneId: number): { escalateAfterMs: number; renotifyEveryMs: number } {
+    const site = this.layout.siteOfZone(zoneId);
+    const escalateAfterS = site?.escalateAfterS ?? null;
+    const renotifyEveryS = site?.renotifyEveryS ?? null;
+    return {
+      escalateAfterMs: escalateAfterS === null ? this.config.escalateAfterMs : escalateAfterS * 1000,
+      renotifyEveryMs: renotifyEveryS === null ? this.config.renotifyEveryMs : renotifyEveryS * 1000,
+    };
   }
 
   private async notice(tx: EntityManager, alert: AlertRecord, type: NoticeType, nowMs: number): Promise<void> {

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { describeDurationS } from "../domain/duration.js";
 
 export const alertKindSchema = z.enum(["window", "condensation", "sensor-silent"]);
 export type AlertKind = z.infer<typeof alertKindSchema>;
@@ -101,11 +102,55 @@ export const dutyShiftSchema = z.object({
 });
 export type DutyShift = z.infer<typeof dutyShiftSchema>;
 
+/**
+ * How long a raised alert may go unacknowledged before the managers are mailed, and how often the
+ * person on duty is reminded meanwhile, per site (PRODUCT.md §5). Seconds, in whole minutes.
+ * Shorter than these and a night-shift worker walking to the greenhouse would be escalated over;
+ * longer and a dead heater goes a whole night unnoticed.
+ */
+export const ALERT_TIMING_LIMITS_S = {
+  escalateAfterS: { min: 5 * 60, max: 12 * 3600 },
+  renotifyEveryS: { min: 10 * 60, max: 12 * 3600 },
+} as const;
+
+function timingSeconds({ min, max }: { min: number; max: number }) {
+  const range = `Choose between ${describeDurationS(min)} and ${describeDurationS(max)}`;
+  return z
+    .number({ error: "Enter a number of minutes" })
+    .int("Use whole minutes")
+    .multipleOf(60, "Use whole minutes")
+    .min(min, range)
+    .max(max, range)
+    .nullable();
+}
+
+/** PUT /api/sites/:id/alert-timing (admin, manager): null = the server's default (ALERT_ESCALATE_AFTER, ALERT_RENOTIFY_EVERY). */
+export const siteAlertTimingInputSchema = z.object({
+  escalateAfterS: timingSeconds(ALERT_TIMING_LIMITS_S.escalateAfterS),
+  renotifyEveryS: timingSeconds(ALERT_TIMING_LIMITS_S.renotifyEveryS),
+});
+export type SiteAlertTimingInput = z.infer<typeof siteAlertTimingInputSchema>;
+
+/** One site's alert timing: its own settings (null = the default) and the server's defaults. */
+export const siteAlertTimingSchema = z.object({
+  siteId: z.number().int(),
+  siteName: z.string(),
+  escalateAfterS: z.number().int().nullable(),
+  renotifyEveryS: z.number().int().nullable(),
+  defaultEscalateAfterS: z.number(),
+  defaultRenotifyEveryS: z.number(),
+});
+export type SiteAlertTiming = z.infer<typeof siteAlertTimingSchema>;
+
+export const siteAlertTimingResponseSchema = z.object({ alertTiming: siteAlertTimingSchema });
+
 export const dutyRotaResponseSchema = z.object({
   shifts: z.array(dutyShiftSchema),
   /** Who would be mailed right now, per zone. */
   onDutyNow: z.array(z.object({ zoneId: z.number().int(), zoneName: z.string(), users: z.array(z.object({ id: z.number().int(), name: z.string() })) })),
   timeZone: z.string(),
+  /** Per site in use: when the managers are told and how often the person on duty is reminded. */
+  alertTiming: z.array(siteAlertTimingSchema),
 });
 export type DutyRotaResponse = z.infer<typeof dutyRotaResponseSchema>;
 

@@ -43,6 +43,7 @@ const MATRIX: Record<string, Access> = {
   "POST /api/duty-rota/shifts": ["admin", "manager"],
   "PUT /api/duty-rota/shifts/:id": ["admin", "manager"],
   "DELETE /api/duty-rota/shifts/:id": ["admin", "manager"],
+  "PUT /api/sites/:id/alert-timing": ["admin", "manager"],
   // Layout (issue 7): sites and zones are the admin's; benches the admin's and the manager's.
   "GET /api/layout": ALL,
   "POST /api/sites": ["admin"],

@@ -1,19 +1,20 @@
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { problemSchema } from "../../shared/api-error.js";
-import { dutyCandidatesResponseSchema, dutyRotaResponseSchema } from "../../shared/schemas/alerts.js";
+import { dutyCandidatesResponseSchema, dutyRotaResponseSchema, siteAlertTimingResponseSchema } from "../../shared/schemas/alerts.js";
 import { auditResponseSchema, type AuditEntry } from "../../shared/schemas/audit.js";
 import { zonesResponseSchema } from "../../shared/schemas/zones.js";
 import { signIn, startTestServer, type TestServer } from "../support/test-server.js";
 
-/** The duty rota: every change audited (who, when, old → new). */
+/** The duty rota and each site's alert timing: every change audited (who, when, old → new), bad input refused per field. */
 let server: TestServer;
 const token = {} as Record<"admin" | "manager" | "grower" | "viewer", string>;
 let people: { id: number; name: string }[];
 let zones: { id: number; name: string }[];
 
 beforeAll(async () => {
-  server = await startTestServer({ ALERT_TICK: "1h" });
+  // The server's defaults, shown beside each site's own setting.
+  server = await startTestServer({ ALERT_TICK: "1h", ALERT_ESCALATE_AFTER: "25m", ALERT_RENOTIFY_EVERY: "40m" });
   for (const role of ["admin", "manager", "grower", "viewer"] as const) token[role] = await signIn(server, role);
   people = dutyCandidatesResponseSchema.parse((await api("get", "/api/duty-rota/candidates", "manager").expect(200)).body).users;
   const zoneList = zonesResponseSchema.parse((await api("get", "/api/zones", "viewer").expect(200)).body);
@@ -142,5 +143,62 @@ describe("duty rota changes are audited", () => {
     expect(problem(res).code).toBe("viewer-cannot-be-on-duty");
     expect(problem((await api("delete", "/api/duty-rota/shifts/99999", "manager").expect(404))).code).toBe("shift-not-found");
     expect((await audit("entityType=duty-rota"))[0]!.id).toBe(before);
+  });
+});
+
+describe("a site's alert timing", () => {
+  it("is read with the duty rota, each site's own setting beside the server's default", async () => {
+    const rota = dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "grower").expect(200)).body);
+    expect(rota.alertTiming).toEqual([
+      { siteId: expect.any(Number), siteName: "Hollin Lane Nursery", escalateAfterS: null, renotifyEveryS: null, defaultEscalateAfterS: 25 * 60, defaultRenotifyEveryS: 40 * 60 },
+    ]);
+  });
+
+  it("a manager sets it; the change is audited old → new in words; back to the default is audited too", async () => {
+    const siteId = dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "viewer").expect(200)).body).alertTiming[0]!.siteId;
+    const saved = await api("put", `/api/sites/${siteId}/alert-timing`, "manager").send({ escalateAfterS: 15 * 60, renotifyEveryS: 90 * 60 }).expect(200);
+    expect(siteAlertTimingResponseSchema.parse(saved.body).alertTiming).toMatchObject({ siteId, escalateAfterS: 900, renotifyEveryS: 5400 });
+    expect(dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "viewer").expect(200)).body).alertTiming[0]).toMatchObject({ escalateAfterS: 900, renotifyEveryS: 5400 });
+
+    const [entry] = await audit(`siteId=${siteId}&entityType=site`);
+    expect(entry).toMatchObject({ action: "updated", subject: "Hollin Lane Nursery", actor: { name: "Tobias Fenwick", role: "manager" } });
+    expect(fieldsOf(entry!)).toEqual({
+      escalateAfterS: ["25 minutes (the default)", "15 minutes"],
+      renotifyEveryS: ["40 minutes (the default)", "1 hour 30 minutes"],
+    });
+    expect(entry!.changes.map((c) => [c.kind, c.old, c.new])).toEqual([
+      ["duration", null, 900],
+      ["duration", null, 5400],
+    ]);
+
+    await api("put", `/api/sites/${siteId}/alert-timing`, "admin").send({ escalateAfterS: 15 * 60, renotifyEveryS: null }).expect(200);
+    const [back] = await audit(`siteId=${siteId}&entityType=site`);
+    expect(back).toMatchObject({ actor: { name: "Imogen Vale", role: "admin" } });
+    expect(fieldsOf(back!)).toEqual({ renotifyEveryS: ["1 hour 30 minutes", "40 minutes (the default)"] });
+  });
+
+  it("values outside the bounds are refused with the reason on each field, and nothing changes", async () => {
+    const siteId = dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "viewer").expect(200)).body).alertTiming[0]!.siteId;
+    const lastEntry = (await audit("entityType=site"))[0]!.id;
+    const res = await api("put", `/api/sites/${siteId}/alert-timing`, "manager").send({ escalateAfterS: 60, renotifyEveryS: 13 * 3600 }).expect(400);
+    expect(res.headers["content-type"]).toMatch(/^application\/problem\+json/);
+    expect(problem(res).errors).toEqual(
+      expect.arrayContaining([
+        { path: "escalateAfterS", message: "Choose between 5 minutes and 12 hours" },
+        { path: "renotifyEveryS", message: "Choose between 10 minutes and 12 hours" },
+      ]),
+    );
+    const partMinute = await api("put", `/api/sites/${siteId}/alert-timing`, "manager").send({ escalateAfterS: 630, renotifyEveryS: null }).expect(400);
+    expect(problem(partMinute).errors).toEqual([{ path: "escalateAfterS", message: "Use whole minutes" }]);
+    expect(problem(await api("put", "/api/sites/99999/alert-timing", "manager").send({ escalateAfterS: null, renotifyEveryS: null }).expect(404)).code).toBe("site-not-found");
+    expect((await audit("entityType=site"))[0]!.id).toBe(lastEntry);
+    expect(dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "viewer").expect(200)).body).alertTiming[0]).toMatchObject({ escalateAfterS: 900, renotifyEveryS: null });
+  });
+
+  it("a grower or a viewer may read it but not change it", async () => {
+    const siteId = dutyRotaResponseSchema.parse((await api("get", "/api/duty-rota", "viewer").expect(200)).body).alertTiming[0]!.siteId;
+    for (const role of ["grower", "viewer"] as const) {
+      expect(problem(await api("put", `/api/sites/${siteId}/alert-timing`, role).send({ escalateAfterS: null, renotifyEveryS: null }).expect(403)).code).toBe("forbidden");
+    }
   });
 });

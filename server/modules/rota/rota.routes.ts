@@ -1,10 +1,11 @@
 import { Router } from "express";
 import { z } from "zod";
-import { dutyShiftInputSchema } from "../../../shared/schemas/alerts.js";
+import { dutyShiftInputSchema, siteAlertTimingInputSchema } from "../../../shared/schemas/alerts.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { RotaService } from "./rota.service.js";
 
 const idParams = z.object({ id: z.coerce.number().int().positive() });
+/** The rota and when the managers are told are the manager's to set (PRODUCT.md §5), and the admin's. */
 const ROTA_EDITORS = ["admin", "manager"] as const;
 
 export function rotaRoutes(table: RouteTable, rota: RotaService): Router {
@@ -24,6 +25,10 @@ export function rotaRoutes(table: RouteTable, rota: RotaService): Router {
   r.delete("/duty-rota/shifts/:id", ROTA_EDITORS, async (req, res) => {
     await rota.remove(idParams.parse(req.params).id, req.principal!);
     res.status(204).end();
+  });
+  r.put("/sites/:id/alert-timing", ROTA_EDITORS, async (req, res) => {
+    const { id } = idParams.parse(req.params);
+    res.json({ alertTiming: await rota.setAlertTiming(id, siteAlertTimingInputSchema.parse(req.body), req.principal!) });
   });
   return r.router;
 }

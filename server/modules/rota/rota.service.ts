@@ -1,14 +1,21 @@
 import { In, IsNull, type DataSource, type EntityManager } from "typeorm";
+import { describeDurationS } from "../../../shared/domain/duration.js";
 import { clockTime, describeWeekdays, usersOnDuty } from "../../../shared/domain/duty-rota.js";
 import type { AuditChange } from "../../../shared/schemas/audit.js";
-import type { DutyRotaResponse, DutyShift, DutyShiftInput } from "../../../shared/schemas/alerts.js";
+import type { DutyRotaResponse, DutyShift, DutyShiftInput, SiteAlertTiming, SiteAlertTimingInput } from "../../../shared/schemas/alerts.js";
 import { DutyShiftEntity, type DutyShiftRecord } from "../../db/entities/alert.entity.js";
-import { SiteEntity } from "../../db/entities/site.entity.js";
+import { SiteEntity, type Site } from "../../db/entities/site.entity.js";
 import { UserEntity } from "../../db/entities/user.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import type { Principal } from "../../lib/auth.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import { auditChange, writeAuditEntry } from "../audit/audit.service.js";
+
+/** The server's alert timing (ALERT_ESCALATE_AFTER, ALERT_RENOTIFY_EVERY), used where a site sets none. */
+export interface AlertTimingDefaults {
+  escalateAfterMs: number;
+  renotifyEveryMs: number;
+}
 
 const EVERY_ZONE = "Every zone";
 
@@ -44,10 +51,15 @@ function shiftSubject(words: ShiftWords): string {
   return `${words.userName} · ${words.zoneName ?? EVERY_ZONE}`;
 }
 
-/** The duty rota: who is mailed about which zone, when. Every change is audited in the transaction that makes it. */
+/**
+ * The duty rota: who is mailed about which zone, when; and per site, when nobody acknowledges,
+ * how soon the managers are told and how often the person on duty is reminded. Every change is
+ * audited in the transaction that makes it.
+ */
 export class RotaService {
   constructor(
     private readonly dataSource: DataSource,
+    private readonly defaults: AlertTimingDefaults,
     private readonly now: () => number = Date.now,
   ) {}
 
@@ -88,8 +100,8 @@ export class RotaService {
   async rota(): Promise<DutyRotaResponse> {
     const shifts = await this.dataSource.getRepository(DutyShiftEntity).find({ order: { isFallback: "ASC", startMinute: "ASC" } });
     const zones = await this.dataSource.getRepository(ZoneEntity).find({ where: { archivedAtMs: IsNull() }, order: { position: "ASC" } });
-    const site = await this.dataSource.getRepository(SiteEntity).findOne({ where: {}, order: { id: "ASC" } });
-    const timeZone = site?.timeZone ?? "UTC";
+    const sites = await this.dataSource.getRepository(SiteEntity).find({ order: { id: "ASC" } });
+    const timeZone = sites[0]?.timeZone ?? "UTC";
     const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false } });
     const managers = users.filter((u) => u.role === "manager");
     const onDutyNow = zones.map((zone) => {
@@ -97,7 +109,8 @@ export class RotaService {
       const chosen = ids.length ? users.filter((u) => ids.includes(u.id)) : managers;
       return { zoneId: zone.id, zoneName: zone.name, users: chosen.map((u) => ({ id: u.id, name: u.name })) };
     });
-    return { shifts: await this.views(shifts), onDutyNow, timeZone };
+    const alertTiming = sites.filter((s) => s.archivedAtMs === null).map((s) => this.timingView(s));
+    return { shifts: await this.views(shifts), onDutyNow, timeZone, alertTiming };
   }
 
   /** Active users who can acknowledge, for the rota's person picker (managers cannot list users). */
@@ -177,5 +190,44 @@ export class RotaService {
         actor,
       );
     });
+  }
+
+  // ── alert timing per site ─────────────────────────────────────────────────
+
+  private timingView(site: Site): SiteAlertTiming {
+    return {
+      siteId: site.id,
+      siteName: site.name,
+      escalateAfterS: site.escalateAfterS,
+      renotifyEveryS: site.renotifyEveryS,
+      defaultEscalateAfterS: Math.round(this.defaults.escalateAfterMs / 1000),
+      defaultRenotifyEveryS: Math.round(this.defaults.renotifyEveryMs / 1000),
+    };
+  }
+
+  /** Sets a site's escalation and reminder times (null = the server's default); the engine uses them at its next pass. */
+  async setAlertTiming(siteId: number, input: SiteAlertTimingInput, actor: Principal): Promise<SiteAlertTiming> {
+    const atMs = this.now();
+    const site = await this.dataSource.transaction(async (tx) => {
+      const before = await tx.getRepository(SiteEntity).findOneBy({ id: siteId });
+      if (!before) throw notFound("site-not-found", `There is no site ${siteId}`);
+      if (before.archivedAtMs !== null) throw new AppError("site-archived", `${before.name} is archived`, 409);
+      const view = this.timingView(before);
+      // Each side named in words, the default with its value then (the server's default may change later).
+      const label = (seconds: number | null, defaultS: number) => (seconds === null ? `${describeDurationS(defaultS)} (the default)` : describeDurationS(seconds));
+      const changes: AuditChange[] = [];
+      for (const [field, defaultS] of [
+        ["escalateAfterS", view.defaultEscalateAfterS],
+        ["renotifyEveryS", view.defaultRenotifyEveryS],
+      ] as const) {
+        if (before[field] === input[field]) continue;
+        changes.push(auditChange(field, "duration", before[field], input[field], { oldLabel: label(before[field], defaultS), newLabel: label(input[field], defaultS) }));
+      }
+      if (changes.length === 0) return before;
+      await tx.getRepository(SiteEntity).update({ id: siteId }, { escalateAfterS: input.escalateAfterS, renotifyEveryS: input.renotifyEveryS });
+      await writeAuditEntry(tx, { entityType: "site", entityId: siteId, action: "updated", subject: before.name, siteId, changes }, atMs, actor);
+      return { ...before, ...input };
+    });
+    return this.timingView(site);
   }
 }

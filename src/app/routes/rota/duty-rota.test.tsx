@@ -15,6 +15,10 @@ const ROTA = {
     { zoneId: 1, zoneName: "Fig house", users: [{ id: 3, name: "Gil Grower" }] },
     { zoneId: 2, zoneName: "Graft house", users: [{ id: 2, name: "Mo Manager" }] },
   ],
+  alertTiming: [
+    // Its own escalation time; reminders at the server's default.
+    { siteId: 4, siteName: "Hillside Propagation", escalateAfterS: 45 * 60, renotifyEveryS: null, defaultEscalateAfterS: 20 * 60, defaultRenotifyEveryS: 30 * 60 },
+  ],
 };
 
 function apiFor(role: Role) {
