@@ -35,6 +35,7 @@ import { RotaService } from "./modules/rota/rota.service.js";
 import { ReadingWriter } from "./modules/readings/reading-writer.js";
 import { ReadingsRepository } from "./modules/readings/readings.repository.js";
 import { ReadingsService } from "./modules/readings/readings.service.js";
+import { ReadingRetention } from "./modules/retention/retention.service.js";
 import { SensorsService } from "./modules/sensors/sensors.service.js";
 import { UsersService } from "./modules/users/users.service.js";
 import { LiveHub } from "./modules/stream/live-hub.js";
@@ -71,6 +72,8 @@ export interface RunningServer {
   dataSource: DataSource;
   metrics: Metrics;
   logger: Logger;
+  /** Raw-reading retention; tests run a pass with run(). */
+  retention: ReadingRetention;
   stop(): Promise<void>;
 }
 
@@ -264,6 +267,12 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   const alertTimer = setInterval(() => void pass().catch((err: unknown) => logger.error({ err }, "alert round failed")), env.ALERT_TICK);
   alertTimer.unref();
   outbox.start();
+  const retention = new ReadingRetention(
+    rawDatabase(dataSource),
+    { retentionDays: env.READING_RETENTION_DAYS, chunkRows: env.READING_RETENTION_CHUNK_ROWS, batchMarginMs: env.SENSOR_SILENT_AFTER },
+    metrics,
+    logger,
+  );
   metrics.addGauge("benchwarden_stream_clients", "Open live-stream connections", () => hub.clientCount);
   metrics.addGauge(
     "benchwarden_alerts",
@@ -303,6 +312,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       if (broker) await broker.close();
       writer.close();
       await passRunning?.catch(() => undefined);
+      await retention.stop();
       await engine.idle();
       await outbox.stop();
       transport.close();
@@ -328,7 +338,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       layout: new LayoutService(dataSource, windows, windowSettings),
       windowSettings,
       audit: new AuditService(dataSource),
-      exports: new ExportsService(dataSource),
+      exports: new ExportsService(dataSource, Date.now, { refreshRollups: () => repository.refreshStaleRollups(), retentionDays: env.READING_RETENTION_DAYS }),
       ...createPropagation({ dataSource, windows, alerts: alertsService, mailer: outbox, logger, databasePath: env.DATABASE_PATH, silentAfterMs: env.SENSOR_SILENT_AFTER, appUrl: () => resolvedAppUrl }),
       zones: new ZonesService(dataSource, repository, windows, alertsService),
       alerts: alertsService,
@@ -355,11 +365,12 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     resolvedAppUrl = appUrl;
     logger.info({ port: httpPort, appUrl, demo }, "HTTP server listening");
 
+    retention.start();
     if (demo && demoCredentialsPath && (env.SIM ?? true)) {
       simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, stop };
+    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, retention, stop };
   } catch (err) {
     await stop();
     throw err;
