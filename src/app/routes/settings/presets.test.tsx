@@ -4,16 +4,20 @@ import type { WindowPresetInput } from "../../../../shared/schemas/windows.js";
 import { NOW_MS, USERS, makeSession, makeZones } from "../../../testing/data";
 import { createApiFake } from "../../../testing/fakes";
 import { FIRST_PAINT, ROUTE_TEST_TIMEOUT_MS, renderApp } from "../../../testing/render-app";
-import { PRESETS } from "./settings-fixtures";
+import { AIR_MIN_WARNING, PRESETS } from "./settings-fixtures";
 
 function presetsApi() {
   return createApiFake({
     "GET /api/session": { body: makeSession(USERS.manager) },
     "GET /api/zones": { body: makeZones() },
     "GET /api/window-presets": { body: { presets: PRESETS } },
-    "POST /api/window-presets": ({ body }) => {
+    // The server's answer: on a dry run the would-be preset (no id yet) and the warning for an air minimum below 21 °C.
+    "POST /api/window-presets": ({ body, search }) => {
       const input = body as WindowPresetInput;
-      return { status: 201, body: { preset: { ...PRESETS[0]!, ...input, id: "12", builtIn: false, notes: [], createdAtMs: NOW_MS, updatedAtMs: NOW_MS }, warnings: [] } };
+      const dryRun = search.includes("dryRun=true");
+      const warnings = input.windows.some((w) => w.quantity === "air.temperature" && w.min < 21) ? [AIR_MIN_WARNING] : [];
+      const preset = { ...PRESETS[0]!, ...input, id: dryRun ? null : "12", builtIn: false, notes: [], createdAtMs: dryRun ? null : NOW_MS, updatedAtMs: dryRun ? null : NOW_MS };
+      return { status: dryRun ? 200 : 201, body: { preset, warnings, dryRun, changed: true } };
     },
   });
 }
@@ -22,7 +26,7 @@ describe("window presets", () => {
   beforeEach(() => vi.setSystemTime(NOW_MS + 30_000));
 
   it(
-    "a copy of a built-in preset with a cool air minimum shows the guidance warning (shared rules, no dry run) before it is created",
+    "a copy of a built-in preset with a cool air minimum shows the server's guidance warning from a dry run before it is created",
     async () => {
       const api = presetsApi();
       renderApp("/settings/presets", api);
@@ -40,10 +44,12 @@ describe("window presets", () => {
       expect(review.textContent).toContain("An air minimum below about 70 °F (21 °C)");
       // The source is cited for people; our notes' file names are not shown.
       expect(review.textContent).not.toContain("REFERENCES.md");
-      expect(api.sent("POST /api/window-presets")).toHaveLength(0);
+      // Only the dry run so far.
+      expect(api.sent("POST /api/window-presets").map((r) => r.search)).toEqual(["?dryRun=true"]);
       fireEvent.click(within(review).getByRole("button", { name: "Save anyway" }));
-      await waitFor(() => expect(api.sent("POST /api/window-presets")).toHaveLength(1));
-      const sent = api.sent("POST /api/window-presets")[0]!.body as WindowPresetInput;
+      await waitFor(() => expect(api.sent("POST /api/window-presets")).toHaveLength(2));
+      expect(api.sent("POST /api/window-presets")[1]!.search).toBe("");
+      const sent = api.sent("POST /api/window-presets")[1]!.body as WindowPresetInput;
       expect(sent.name).toBe("Hardening, cool nights");
       expect(sent.windows[0]!.min).toBeCloseTo((62 - 32) / 1.8, 10);
       expect(await screen.findByText("Preset “Hardening, cool nights” created")).toBeTruthy();

@@ -3,16 +3,24 @@ import { windowPresetResponseSchema, type WindowPresetInput } from "../../../../
 import { apiSend } from "../../../lib/api-client";
 import { getWindowPresetsQueryOptions } from "./get-window-presets";
 
-/** POST /api/window-presets (admin, manager). 409 preset-name-taken is on the name field. */
-export function createWindowPreset(input: WindowPresetInput) {
-  return apiSend("POST", "/api/window-presets", windowPresetResponseSchema, { body: input });
+export type CreateWindowPresetVariables = { input: WindowPresetInput; dryRun: boolean };
+
+/**
+ * POST /api/window-presets (admin, manager). `dryRun` runs every check of a save and answers the
+ * guidance warnings without saving; 409 preset-name-taken is on the name field.
+ */
+export function createWindowPreset({ input, dryRun }: CreateWindowPresetVariables) {
+  const query = dryRun ? "?dryRun=true" : "";
+  return apiSend("POST", `/api/window-presets${query}`, windowPresetResponseSchema, { body: input });
 }
 
 export function useCreateWindowPreset() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createWindowPreset,
-    onSuccess: () =>
-      Promise.all([queryClient.invalidateQueries({ queryKey: getWindowPresetsQueryOptions().queryKey }), queryClient.invalidateQueries({ queryKey: ["audit"] })]),
+    onSuccess: (_saved, { dryRun }) =>
+      dryRun
+        ? undefined
+        : Promise.all([queryClient.invalidateQueries({ queryKey: getWindowPresetsQueryOptions().queryKey }), queryClient.invalidateQueries({ queryKey: ["audit"] })]),
   });
 }

@@ -158,27 +158,36 @@ function PresetForm({ editing, onDone }: { editing: Editing; onDone: () => void 
   const create = useCreateWindowPreset();
   const update = useUpdateWindowPreset();
   const isBusy = create.isPending || update.isPending;
+  // What the stored values already warn about (shared rules), so the review marks which warnings are new.
+  const savedWarnings = editing.mode === "edit" ? windowWarnings(editing.preset) : [];
 
-  function save(input: WindowPresetInput) {
-    const quantities = input.windows.map((w) => w.quantity);
-    const onError = (error: unknown) => {
-      setReview(null);
-      const placed = windowErrorsFromApi(error, quantities);
-      const nameError = (error as { fieldErrors?: { path: string; message: string }[] }).fieldErrors?.find((f) => f.path === "name")?.message;
-      setErrors({ ...placed, form: nameError ? null : placed.form, name: nameError });
-      focusFirstInvalid(formRef.current);
-    };
-    const onSuccess = () => {
-      showToast(editing.mode === "edit" ? `Preset “${input.name}” saved` : `Preset “${input.name}” created`);
-      onDone();
-    };
-    if (editing.mode === "edit") update.mutate({ id: editing.preset.id, input }, { onSuccess, onError });
-    else create.mutate(input, { onSuccess, onError });
+  function send(input: WindowPresetInput, dryRun: boolean) {
+    return editing.mode === "edit" ? update.mutateAsync({ id: editing.preset.id, input, dryRun }) : create.mutateAsync({ input, dryRun });
   }
 
-  function onSubmit(event: FormEvent<HTMLFormElement>) {
+  function showError(error: unknown, input: WindowPresetInput) {
+    setReview(null);
+    const placed = windowErrorsFromApi(error, input.windows.map((w) => w.quantity));
+    const nameError = (error as { fieldErrors?: { path: string; message: string }[] }).fieldErrors?.find((f) => f.path === "name")?.message;
+    setErrors({ ...placed, form: nameError ? null : placed.form, name: nameError });
+    focusFirstInvalid(formRef.current);
+  }
+
+  async function commit(input: WindowPresetInput) {
+    try {
+      const saved = await send(input, false);
+      if (!saved.changed) showToast("Nothing to save: these are the stored values", "info");
+      else showToast(editing.mode === "edit" ? `Preset “${input.name}” saved` : `Preset “${input.name}” created`);
+      onDone();
+    } catch (error) {
+      showError(error, input);
+    }
+  }
+
+  async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const windows = draftWindows(draft, unit);
+    // The values checked are the SI values sent: the same schema the server parses the body with.
     const parsed = windowPresetInputSchema.safeParse({ name, description, windows, dewPointMarginC: marginSi(draft.margin, unit) });
     if (!parsed.success) {
       const issues = zodIssues(parsed.error);
@@ -188,10 +197,17 @@ function PresetForm({ editing, onDone }: { editing: Editing; onDone: () => void 
       return;
     }
     setErrors(NO_WINDOW_ERRORS);
-    // No dry run for presets: the same guidance rules the server answers with, run here (shared/domain).
-    const warnings = windowWarnings(parsed.data);
-    if (warnings.length > 0) return setReview({ input: parsed.data, warnings });
-    save(parsed.data);
+    const input = parsed.data;
+    // The server's dry run, as for a zone's window: every check of a save (a free name too) and the
+    // guidance warnings, shown before anything is stored.
+    try {
+      const answer = await send(input, true);
+      if (!answer.changed) return showToast("Nothing to save: these are the stored values", "info");
+      if (answer.warnings.length > 0) return setReview({ input, warnings: answer.warnings });
+    } catch (error) {
+      return showError(error, input);
+    }
+    await commit(input);
   }
 
   const editQuantity = (next: QuantityDraft) => {
@@ -204,7 +220,7 @@ function PresetForm({ editing, onDone }: { editing: Editing; onDone: () => void 
       <h2 id="preset-form-heading" className="mb-3 text-2xl font-bold">
         {editing.mode === "edit" ? `Edit “${editing.preset.name}”` : source ? `New preset from “${source.name}”` : "New preset"}
       </h2>
-      <form ref={formRef} onSubmit={onSubmit} noValidate aria-label="Preset" className="flex flex-col gap-4">
+      <form ref={formRef} onSubmit={(event) => void onSubmit(event)} noValidate aria-label="Preset" className="flex flex-col gap-4">
         {errors.form && <Notice tone="error">{errors.form}</Notice>}
         <div className="grid gap-4 sm:grid-cols-2">
           <TextField label="Name" value={name} onChange={(e) => setName(e.target.value)} error={errors.name} autoComplete="off" />
@@ -218,7 +234,7 @@ function PresetForm({ editing, onDone }: { editing: Editing; onDone: () => void 
           <MarginField draft={draft.margin} unit={unit} error={errors.fields.dewPointMarginC} onChange={(margin) => setDraft((d) => ({ ...d, margin }))} />
         </fieldset>
         {review ? (
-          <ReviewPanel warnings={review.warnings} savedWarnings={[]} isSaving={isBusy} onSaveAnyway={() => save(review.input)} onBack={() => setReview(null)} />
+          <ReviewPanel warnings={review.warnings} savedWarnings={savedWarnings} isSaving={isBusy} onSaveAnyway={() => void commit(review.input)} onBack={() => setReview(null)} />
         ) : (
           <div className="flex flex-wrap gap-3">
             <Button type="submit" variant="primary" isBusy={isBusy}>
