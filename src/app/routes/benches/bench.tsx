@@ -7,6 +7,7 @@ import { RouteError } from "../../../components/errors/route-error";
 import { LinkButton } from "../../../components/ui/link-button";
 import { paths } from "../../../config/paths";
 import { getAlertsQueryOptions } from "../../../features/alerts/api/get-alerts";
+import { useBenchObservations } from "../../../features/batches/api/get-bench-observations";
 import { ExportCsvButton } from "../../../features/exports/components/export-csv-button";
 import { getBenchReadingsQueryOptions, useBenchReadings } from "../../../features/readings/api/get-bench-readings";
 import { BenchCharts } from "../../../features/readings/components/bench-charts";
@@ -18,6 +19,7 @@ import { BenchLatest } from "../../../features/zones/components/bench-latest";
 import { useNow } from "../../../hooks/use-now";
 import { useTemperatureUnit } from "../../../lib/temperature-unit";
 import { BenchOpenAlerts } from "../alerts/bench-open-alerts";
+import { observationMarkers } from "../history/observation-markers";
 
 /**
  * Where each alert of the range is marked: a window alert on its own quantity's chart, a
@@ -72,6 +74,9 @@ export default function BenchRoute() {
   // Alerts raised in the range, marked on the charts; the charts do not wait for them.
   const alerts = useQuery(getAlertsQueryOptions({ status: "all", benchId, fromMs: readings.fromMs, toMs: readings.toMs, limit: 200 }));
   const markers = alertMarkers(alerts.data?.alerts ?? []);
+  // And what growers saw on the bench's batches then.
+  const seen = useBenchObservations({ benchId, fromMs: readings.fromMs, toMs: readings.toMs });
+  const observations = observationMarkers(seen.data?.observations ?? [], { withBench: false });
 
   return (
     <>
@@ -101,6 +106,7 @@ export default function BenchRoute() {
           unit={unit}
           range={range}
           markers={markers}
+          observations={observations}
           controls={
             <div className="flex flex-wrap items-start gap-3">
               <RangePicker key={rangeToSearch(range)} range={range} onChange={setRange} />

@@ -3,28 +3,21 @@ import { data, useNavigate, useParams, useSearchParams, type LoaderFunction, typ
 import { RouteError } from "../../../components/errors/route-error";
 import { LinkButton } from "../../../components/ui/link-button";
 import { paths } from "../../../config/paths";
+import { useBenchObservations } from "../../../features/batches/api/get-bench-observations";
 import { ExportCsvButton } from "../../../features/exports/components/export-csv-button";
-import { getLayoutQueryOptions, useLayout } from "../../../features/layout/api/get-layout";
+import { getLayoutQueryOptions } from "../../../features/layout/api/get-layout";
 import { getZoneReadingsQueryOptions, useZoneReadings } from "../../../features/readings/api/get-zone-readings";
 import { RangePicker } from "../../../features/readings/components/range-picker";
 import { ZoneCharts } from "../../../features/readings/components/zone-charts";
 import { rangeBounds, rangeFromSearch, rangeToSearch, type ChartRange } from "../../../features/readings/utils/chart-range";
 import { getZoneWindowsQueryOptions, useZoneWindows } from "../../../features/windows/api/get-zone-windows";
 import { useTemperatureUnit } from "../../../lib/temperature-unit";
-import type { LayoutResponse } from "../../../../shared/schemas/layout.js";
+import { observationMarkers } from "./observation-markers";
 
 function parseZoneId(params: Params): number {
   const zoneId = Number(params.zoneId);
   if (!Number.isSafeInteger(zoneId) || zoneId <= 0) throw data("There is no zone with that number.", { status: 404, statusText: "Not found" });
   return zoneId;
-}
-
-/** The zone's benches in use, in walking order. */
-function liveBenchIds(layout: LayoutResponse, zoneId: number): number[] {
-  return layout.benches
-    .filter((b) => b.zoneId === zoneId && b.archivedAtMs === null)
-    .sort((a, b) => a.position - b.position || a.id - b.id)
-    .map((b) => b.id);
 }
 
 export const clientLoader =
@@ -34,7 +27,7 @@ export const clientLoader =
     const range = rangeFromSearch(new URL(request.url).searchParams);
     const [layout] = await Promise.all([queryClient.ensureQueryData(getLayoutQueryOptions()), queryClient.ensureQueryData(getZoneWindowsQueryOptions(zoneId))]);
     if (!layout.zones.some((z) => z.id === zoneId)) throw data("There is no zone in use with that number.", { status: 404, statusText: "Not found" });
-    await queryClient.ensureQueryData(getZoneReadingsQueryOptions({ zoneId, benchIds: liveBenchIds(layout, zoneId), range }));
+    await queryClient.ensureQueryData(getZoneReadingsQueryOptions({ zoneId, range }));
     return null;
   };
 
@@ -44,9 +37,12 @@ export default function ZoneHistoryRoute() {
   const [search] = useSearchParams();
   const navigate = useNavigate();
   const range = rangeFromSearch(search);
-  const { data: layout } = useLayout();
   const { data: windows } = useZoneWindows(zoneId);
-  const { data: readings } = useZoneReadings({ zoneId, benchIds: liveBenchIds(layout, zoneId), range });
+  const { data: readings } = useZoneReadings({ zoneId, range });
+  // What growers saw on the zone's charted benches; the charts do not wait for it.
+  const seen = useBenchObservations({ zoneId, fromMs: readings.fromMs, toMs: readings.toMs });
+  const charted = new Set(readings.benches.map((b) => b.bench.id));
+  const observations = observationMarkers((seen.data?.observations ?? []).filter((o) => charted.has(o.benchId)), { withBench: true });
   const { unit } = useTemperatureUnit();
   const setRange = (next: ChartRange) => void navigate({ search: rangeToSearch(next) }, { replace: true });
   const zone = windows.zone;
@@ -69,6 +65,7 @@ export default function ZoneHistoryRoute() {
         zoneWindows={windows.windows}
         unit={unit}
         range={range}
+        observations={observations}
         controls={
           <div className="flex flex-wrap items-start gap-3">
             <RangePicker key={rangeToSearch(range)} range={range} onChange={setRange} />

@@ -10,6 +10,7 @@ import { derivedPoints, niceAxis, outOfWindowStretches, summarizeSeries, toChart
 import { DEFAULT_RANGE, describeRange, describeRangeInSentence, type ChartRange } from "../utils/chart-range";
 import { DerivedToggles, type DerivedChoice } from "./derived-toggles";
 import { MultiLineChart } from "./multi-line-chart";
+import { ObservationGlyph, ObservationLane, type ObservationMarker } from "./observation-lane";
 import { ReadingChart, type ChartMarker, type ExtraLine } from "./reading-chart";
 
 type BenchChartsProps = {
@@ -20,6 +21,8 @@ type BenchChartsProps = {
   controls?: ReactNode;
   /** Moments to mark, per quantity (alerts raised), composed by the route. */
   markers?: Partial<Record<WindowedQuantity, readonly ChartMarker[]>>;
+  /** What growers saw on the bench's batches in the range, marked on every quantity's chart. */
+  observations?: readonly ObservationMarker[];
 };
 
 /**
@@ -27,7 +30,7 @@ type BenchChartsProps = {
  * point (on the air chart) and the VPD (a chart of its own), both worked out from the air
  * temperature and humidity series with shared/domain/psychrometrics.ts.
  */
-export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls, markers }: BenchChartsProps) {
+export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls, markers, observations = [] }: BenchChartsProps) {
   const [derived, setDerived] = useState<DerivedChoice>({ dewPoint: false, vpd: false });
   const series = (q: WindowedQuantity) => readings.series.find((s) => s.quantity === q)?.points ?? [];
   const derivedSeries = derived.dewPoint || derived.vpd ? derivedPoints(series("air.temperature"), series("air.humidity")) : [];
@@ -42,7 +45,11 @@ export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls, m
       </div>
       <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <DerivedToggles value={derived} onChange={setDerived} />
-        <ChartKey hasDewPoint={derived.dewPoint} />
+        <ChartKey
+          hasDewPoint={derived.dewPoint}
+          hasAlerts={Object.values(markers ?? {}).some((list) => list.some((m) => m.timeMs >= readings.fromMs && m.timeMs <= readings.toMs))}
+          hasObservations={observations.some((o) => o.timeMs >= readings.fromMs && o.timeMs <= readings.toMs)}
+        />
       </div>
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
         {WINDOWED_QUANTITIES.map((quantity) => (
@@ -54,6 +61,7 @@ export function BenchCharts({ readings, unit, range = DEFAULT_RANGE, controls, m
               range={range}
               extraLine={quantity === "air.temperature" && derived.dewPoint ? dewPointLine(derivedSeries, unit) : undefined}
               markers={markers?.[quantity]}
+              observations={observations}
             />
           </PanelBoundary>
         ))}
@@ -88,6 +96,7 @@ function QuantityChartPanel({
   range,
   extraLine,
   markers,
+  observations,
 }: {
   quantity: WindowedQuantity;
   readings: BenchReadingsResponse;
@@ -95,6 +104,7 @@ function QuantityChartPanel({
   range: ChartRange;
   extraLine?: ExtraLine;
   markers?: readonly ChartMarker[];
+  observations: readonly ObservationMarker[];
 }) {
   const points = readings.series.find((s) => s.quantity === quantity)?.points ?? [];
   const window = readings.windows.find((w) => w.quantity === quantity);
@@ -115,17 +125,21 @@ function QuantityChartPanel({
       {points.length === 0 ? (
         <p className="flex h-40 items-center justify-center text-lg text-muted">No readings {describeRangeInSentence(range)}</p>
       ) : (
-        <ReadingChart
-          quantity={quantity}
-          points={points}
-          window={window}
-          unit={unit}
-          fromMs={readings.fromMs}
-          toMs={readings.toMs}
-          bucketMs={readings.bucketMs}
-          extraLine={extraLine}
-          markers={markers}
-        />
+        <>
+          <ReadingChart
+            quantity={quantity}
+            points={points}
+            window={window}
+            unit={unit}
+            fromMs={readings.fromMs}
+            toMs={readings.toMs}
+            bucketMs={readings.bucketMs}
+            extraLine={extraLine}
+            markers={markers}
+            observations={observations}
+          />
+          <ObservationLane markers={observations} fromMs={readings.fromMs} toMs={readings.toMs} />
+        </>
       )}
       {summary && (
         <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-base">
@@ -189,7 +203,7 @@ function VpdPanel({ points, readings, range }: { points: readonly DerivedPoint[]
   );
 }
 
-export function ChartKey({ hasDewPoint = false }: { hasDewPoint?: boolean }) {
+export function ChartKey({ hasDewPoint = false, hasAlerts = false, hasObservations = false }: { hasDewPoint?: boolean; hasAlerts?: boolean; hasObservations?: boolean }) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-base text-muted" aria-label="Chart key">
       <li className="flex items-center gap-1.5">
@@ -223,6 +237,30 @@ export function ChartKey({ hasDewPoint = false }: { hasDewPoint?: boolean }) {
           Dew point
         </li>
       )}
+      {hasAlerts && <AlertKeyItem />}
+      {hasObservations && <ObservationKeyItem />}
     </ul>
+  );
+}
+
+/** The key's entry for alert marks: a dashed upright line labelled ⚠. */
+export function AlertKeyItem() {
+  return (
+    <li className="flex items-center gap-1.5">
+      <span className="inline-block h-4 border-l-2 border-dotted border-[var(--bw-ink)]" aria-hidden="true" />
+      <span aria-hidden="true">⚠</span>
+      Alert raised
+    </li>
+  );
+}
+
+/** The key's entry for observation marks: ◇ under the chart on a thin solid line, ◆ when something was flagged. */
+export function ObservationKeyItem() {
+  return (
+    <li className="flex items-center gap-1.5">
+      <ObservationGlyph isFlagged={false} />
+      <ObservationGlyph isFlagged />
+      Observation (filled: something flagged)
+    </li>
   );
 }

@@ -3,7 +3,8 @@ import type { TooltipContentProps } from "recharts";
 import type { WindowStatus } from "../../../../shared/schemas/windows.js";
 import { formatDateTime } from "../../../lib/format-time";
 import { timeAxis, type OutOfWindowStretch } from "../utils/chart-points";
-import { AXIS_TICK, STRETCH_FILL, STRETCH_OPACITY } from "./reading-chart";
+import type { ObservationMarker } from "./observation-lane";
+import { AXIS_TICK, STRETCH_FILL, STRETCH_OPACITY, observationLines } from "./reading-chart";
 
 /** One line of a chart with several (a zone's benches, a derived quantity): values in display units. */
 export type LineSeries = {
@@ -65,13 +66,15 @@ type MultiLineChartProps = {
   stretches?: readonly OutOfWindowStretch[];
   formatValue: (displayValue: number) => string;
   heightPx?: number;
+  /** Observations to mark with a thin solid line (their ◇ sits in the lane under the chart). */
+  observations?: readonly ObservationMarker[];
 };
 
 /**
  * Several lines over one time axis: a zone's benches (each a mean line with ▼▲ where it leaves
  * its own window), or a derived quantity such as VPD.
  */
-export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, stretches = [], formatValue, heightPx = 240 }: MultiLineChartProps) {
+export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, stretches = [], formatValue, heightPx = 240, observations = [] }: MultiLineChartProps) {
   const data = mergeSeries(series, bucketMs);
   const time = timeAxis(fromMs, toMs);
   return (
@@ -112,6 +115,7 @@ export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, str
           className="bw-window-band"
         />
       )}
+      {observationLines(observations, fromMs, toMs)}
       {series.map((s) => (
         <Line
           key={s.key}

@@ -7,6 +7,7 @@ import type { QuantityWindow } from "../../../../shared/schemas/windows.js";
 import { formatDateTime } from "../../../lib/format-time";
 import { describeStatus } from "../../../lib/quantity-labels";
 import { chartAxis, outOfWindowStretches, timeAxis, toChartPoints, type ChartPoint } from "../utils/chart-points";
+import type { ObservationMarker } from "./observation-lane";
 
 /** A line worked out from other series (the dew point), drawn over the chart in the same unit. */
 export type ExtraLine = {
@@ -30,6 +31,8 @@ type ReadingChartProps = {
   heightPx?: number;
   extraLine?: ExtraLine;
   markers?: readonly ChartMarker[];
+  /** Observations to mark with a thin solid line (their ◇ sits in the lane under the chart). */
+  observations?: readonly ObservationMarker[];
 };
 
 type PlotPoint = ChartPoint & { extra: number | null };
@@ -46,7 +49,7 @@ export const STRETCH_OPACITY = 0.14;
  * Buckets whose mean is out of window also get a marker (▼ below, ▲ above), so the chart reads
  * without colour too. An optional derived line (the dew point on the air chart) is dashed.
  */
-export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220, extraLine, markers = [] }: ReadingChartProps) {
+export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, bucketMs, heightPx = 220, extraLine, markers = [], observations = [] }: ReadingChartProps) {
   const chartPoints = toChartPoints(points, quantity, unit, bucketMs, window);
   const data: PlotPoint[] = chartPoints.map((p) => ({ ...p, extra: p.mean === null ? null : (extraLine?.values.get(p.timeMs) ?? null) }));
   const axis = chartAxis(chartPoints, quantity, unit, window, extraLine ? [...extraLine.values.values()] : []);
@@ -103,6 +106,7 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
           className="bw-window-band"
         />
       )}
+      {observationLines(observations, fromMs, toMs)}
       {markers
         .filter((m) => m.timeMs >= fromMs && m.timeMs <= toMs)
         .map((m) => (
@@ -113,7 +117,8 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
             strokeWidth={2}
             strokeDasharray="2 3"
             className="bw-alert-marker"
-            label={{ value: `⚠ ${m.label}`, position: "insideTopLeft", fill: "var(--bw-ink)", fontSize: 13 }}
+            // In the right half the label reads leftwards from the line, so it is not cut off at the chart's edge.
+            label={{ value: `⚠ ${m.label}`, position: m.timeMs - fromMs > (toMs - fromMs) / 2 ? "insideTopRight" : "insideTopLeft", fill: "var(--bw-ink)", fontSize: 13 }}
           />
         ))}
       <Area
@@ -153,6 +158,19 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
       />
     </ComposedChart>
   );
+}
+
+/**
+ * Each observation as a thin solid line in the accent colour across the plot: where it falls in the
+ * series. An alert is a dashed line in ink with a ⚠ label; the two differ in dash and label, not
+ * only in colour.
+ */
+export function observationLines(observations: readonly ObservationMarker[], fromMs: number, toMs: number) {
+  return observations
+    .filter((o) => o.timeMs >= fromMs && o.timeMs <= toMs)
+    .map((o) => (
+      <ReferenceLine key={`observation-${o.id}`} x={o.timeMs} stroke="var(--bw-accent)" strokeWidth={1.5} strokeOpacity={0.7} className="bw-observation-marker" />
+    ));
 }
 
 type DotProps = { cx?: number; cy?: number; payload?: ChartPoint; index?: number };

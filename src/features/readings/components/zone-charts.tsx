@@ -11,7 +11,9 @@ import type { ZoneReadings } from "../api/get-zone-readings";
 import { derivedPoints, niceAxis, outOfWindowStretches, summarizeSeries, toChartPoints, type OutOfWindowStretch } from "../utils/chart-points";
 import { DEFAULT_RANGE, describeRange, describeRangeInSentence, type ChartRange } from "../utils/chart-range";
 import { DerivedToggles, type DerivedChoice } from "./derived-toggles";
+import { ObservationKeyItem } from "./bench-charts";
 import { MultiLineChart, lineStyle, type LineSeries } from "./multi-line-chart";
+import { ObservationLane, type ObservationMarker } from "./observation-lane";
 
 type ZoneChartsProps = {
   readings: ZoneReadings;
@@ -20,6 +22,8 @@ type ZoneChartsProps = {
   unit: TemperatureUnit;
   range?: ChartRange;
   controls?: ReactNode;
+  /** What growers saw on the zone's benches in the range (each marker names its bench), marked on every quantity's chart. */
+  observations?: readonly ObservationMarker[];
 };
 
 const seriesOf = (bench: BenchReadingsResponse, q: WindowedQuantity) => bench.series.find((s) => s.quantity === q)?.points ?? [];
@@ -29,7 +33,7 @@ const seriesOf = (bench: BenchReadingsResponse, q: WindowedQuantity) => bench.se
  * dash), the zone's window as the band, and the stretches each bench spent out of its own window
  * shaded and marked. Dew point and VPD per bench on request.
  */
-export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE, controls }: ZoneChartsProps) {
+export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE, controls, observations = [] }: ZoneChartsProps) {
   const [derived, setDerived] = useState<DerivedChoice>({ dewPoint: false, vpd: false });
   const styles = new Map(readings.benches.map((b, i) => [b.bench.id, lineStyle(i)]));
 
@@ -43,7 +47,7 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
       </div>
       <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <DerivedToggles value={derived} onChange={setDerived} />
-        <BenchKey readings={readings} styles={styles} />
+        <BenchKey readings={readings} styles={styles} hasObservations={observations.some((o) => o.timeMs >= readings.fromMs && o.timeMs <= readings.toMs)} />
       </div>
       {readings.benches.length === 0 ? (
         <p className="text-lg text-muted">This zone has no benches in use.</p>
@@ -51,7 +55,15 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
         <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
           {WINDOWED_QUANTITIES.map((quantity) => (
             <PanelBoundary key={quantity}>
-              <ZoneQuantityPanel quantity={quantity} readings={readings} zoneWindow={zoneWindows.find((w) => w.quantity === quantity)} unit={unit} range={range} styles={styles} />
+              <ZoneQuantityPanel
+                quantity={quantity}
+                readings={readings}
+                zoneWindow={zoneWindows.find((w) => w.quantity === quantity)}
+                unit={unit}
+                range={range}
+                styles={styles}
+                observations={observations}
+              />
             </PanelBoundary>
           ))}
           {derived.dewPoint && (
@@ -77,7 +89,7 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
 
 type Styles = ReadonlyMap<number, { color: string; dash: string }>;
 
-function BenchKey({ readings, styles }: { readings: ZoneReadings; styles: Styles }) {
+function BenchKey({ readings, styles, hasObservations }: { readings: ZoneReadings; styles: Styles; hasObservations: boolean }) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-base" aria-label="Benches on the charts">
       {readings.benches.map((b) => {
@@ -100,6 +112,7 @@ function BenchKey({ readings, styles }: { readings: ZoneReadings; styles: Styles
         </span>
         Out of its window
       </li>
+      {hasObservations && <ObservationKeyItem />}
     </ul>
   );
 }
@@ -111,6 +124,7 @@ function ZoneQuantityPanel({
   unit,
   range,
   styles,
+  observations,
 }: {
   quantity: WindowedQuantity;
   readings: ZoneReadings;
@@ -118,6 +132,7 @@ function ZoneQuantityPanel({
   unit: TemperatureUnit;
   range: ChartRange;
   styles: Styles;
+  observations: readonly ObservationMarker[];
 }) {
   const headingId = `zone-chart-${quantity.replace(".", "-")}`;
   const values: number[] = [];
@@ -164,8 +179,10 @@ function ZoneQuantityPanel({
           band={zoneWindow ? { y1: toDisplayValue(quantity, zoneWindow.min, unit), y2: toDisplayValue(quantity, zoneWindow.max, unit) } : undefined}
           stretches={stretches}
           formatValue={(v) => `${v.toFixed(displayDecimals(quantity))} ${unitLabel}`}
+          observations={observations}
         />
       )}
+      {hasData && <ObservationLane markers={observations} fromMs={readings.fromMs} toMs={readings.toMs} />}
       {outByBench.some((b) => b.hasWindow) && (
         <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-base">
           <span className="text-muted">Out of window:</span>
