@@ -8,7 +8,10 @@ import Database from "better-sqlite3";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { caughtMailResponseSchema } from "../../shared/schemas/mail.js";
+import { rawDatabase } from "../../server/db/data-source.js";
 import { PROJECT_ROOT } from "../../server/index.js";
+import { ReadingWriter } from "../../server/modules/readings/reading-writer.js";
+import { ReadingsRepository } from "../../server/modules/readings/readings.repository.js";
 import { signIn, startTestServer, waitFor } from "../support/test-server.js";
 
 const TSX = join(PROJECT_ROOT, "node_modules/tsx/dist/cli.mjs");
@@ -64,6 +67,26 @@ describe("graceful shutdown", () => {
     expect(acked).toBeGreaterThanOrEqual(3000);
     expect(stored).toBeGreaterThanOrEqual(acked);
   }, 120_000);
+
+  // The test above cannot see this: a reading still waiting for its batch has not been acknowledged,
+  // so the sensor would send it again. stop() closes the reading writer, which must store it, not drop it.
+  it("the reading writer, closed at stop, commits the batch still waiting, then refuses new readings", async () => {
+    const server = await startTestServer({ ALERT_TICK: "1h" });
+    try {
+      // A writer that would otherwise wait a minute before committing: only close() can store these now.
+      const writer = new ReadingWriter(new ReadingsRepository(rawDatabase(server.dataSource)), () => undefined, server.metrics, server.logger, { maxWaitMs: 60_000 });
+      const sensorId = server.credentials[0]!.id;
+      const t0 = Date.now() - 60_000;
+      const waiting = writer.enqueue([0, 1, 2].map((i) => ({ sensorId, benchId: null, quantity: "air.temperature" as const, timeMs: t0 + i, value: 21 })));
+      writer.close();
+      const stored = rawDatabase(server.dataSource).prepare("SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ? AND time_ms >= ?").get(sensorId, t0) as { n: number };
+      expect(stored.n).toBe(3);
+      await waiting;
+      await expect(writer.enqueue([{ sensorId, benchId: null, quantity: "air.temperature", timeMs: t0 + 3, value: 21 }])).rejects.toThrow(/closed/);
+    } finally {
+      await server.cleanup();
+    }
+  });
 
   it("mail waiting in the outbox when the server stops is sent after the restart", async () => {
     const dbDir = mkdtempSync(join(dir, "outbox-"));
