@@ -1,14 +1,51 @@
-import { NavLink } from "react-router-dom";
+import { useCallback, useEffect, useRef, useState } from "react";
+import { NavLink, useLocation } from "react-router-dom";
 
 /** A count beside a link (open alerts); `label` is what a screen reader hears, e.g. "2 open". */
 export type NavBadge = { count: number; label: string; isUrgent?: boolean };
 
 export type NavItem = { to: string; label: string; end?: boolean; badge?: NavBadge };
 
-/** The page links in the header; the current page is marked for sight and for screen readers. */
+/** Which edges of a sideways-scrolling row hide links (a phone does not show them all). */
+type Hidden = { left: boolean; right: boolean };
+
+const FADES: Record<string, string> = {
+  "false,false": "",
+  "false,true": "[mask-image:linear-gradient(to_right,black_80%,transparent)]",
+  "true,false": "[mask-image:linear-gradient(to_left,black_80%,transparent)]",
+  "true,true": "[mask-image:linear-gradient(to_right,transparent,black_20%,black_80%,transparent)]",
+};
+
+/**
+ * The page links in the header; the current page is marked for sight and for screen readers.
+ * On a narrow screen the row scrolls sideways: the edge that hides links fades out, as a cue,
+ * and the current page's link is scrolled into view.
+ */
 export function MainNav({ items }: { items: readonly NavItem[] }) {
+  const navRef = useRef<HTMLElement>(null);
+  const [hidden, setHidden] = useState<Hidden>({ left: false, right: false });
+  const { pathname } = useLocation();
+
+  const measure = useCallback(() => {
+    const nav = navRef.current;
+    if (!nav) return;
+    const left = nav.scrollLeft > 2;
+    const right = nav.scrollLeft + nav.clientWidth < nav.scrollWidth - 2;
+    setHidden((current) => (current.left === left && current.right === right ? current : { left, right }));
+  }, []);
+
+  useEffect(() => {
+    navRef.current?.querySelector<HTMLElement>("[aria-current='page']")?.scrollIntoView?.({ block: "nearest", inline: "nearest" });
+    measure();
+  }, [pathname, measure]);
+
+  useEffect(() => {
+    window.addEventListener("resize", measure);
+    return () => window.removeEventListener("resize", measure);
+  }, [measure]);
+
   return (
-    <nav aria-label="Pages" className="-mx-1 overflow-x-auto">
+    <nav ref={navRef} aria-label="Pages" onScroll={measure} className={`-mx-1 overflow-x-auto ${FADES[`${hidden.left},${hidden.right}`]}`}>
       <ul className="flex gap-1 px-1">
         {items.map((item) => (
           <li key={item.to}>
