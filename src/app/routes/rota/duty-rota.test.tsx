@@ -149,4 +149,70 @@ describe("duty rota page", () => {
     },
     ROUTE_TEST_TIMEOUT_MS,
   );
+
+  it(
+    "a grower reads when the managers are told and how often the person on duty is reminded, with no form",
+    async () => {
+      const api = apiFor("grower");
+      renderApp("/duty-rota", api);
+      const section = await screen.findByRole("region", { name: "When nobody acknowledges" }, FIRST_PAINT);
+      expect(section.textContent).toContain("Hillside Propagation");
+      expect(section.textContent).toContain("The managers are told after 45 minutes.");
+      expect(section.textContent).toContain("The person on duty is reminded every 30 minutes (the default).");
+      expect(section.textContent).toContain("Only managers and admins change these times.");
+      expect(within(section).queryByRole("textbox")).toBeNull();
+      expect(within(section).queryByRole("button")).toBeNull();
+    },
+    ROUTE_TEST_TIMEOUT_MS,
+  );
+
+  it(
+    "a manager's alert times are checked with the shared schema before sending; empty means the default; the server's refusal lands on its field",
+    async () => {
+      const api = apiFor("manager");
+      renderApp("/duty-rota", api);
+      const form = await screen.findByRole("form", { name: "When nobody acknowledges at Hillside Propagation" }, FIRST_PAINT);
+      const managers = within(form).getByRole("textbox", { name: "Tell the managers after" }) as HTMLInputElement;
+      const reminders = within(form).getByRole("textbox", { name: "Remind the person on duty every" }) as HTMLInputElement;
+      // The site's own 45 minutes; reminders empty (the default), which the hint names.
+      expect(managers.value).toBe("45");
+      expect(reminders.value).toBe("");
+      expect(form.textContent).toContain("Leave empty for the default, 30 minutes. From 10 minutes to 12 hours.");
+
+      // Below the bounds, above them, part of a minute, not a number: refused here, nothing sent.
+      fireEvent.change(managers, { target: { value: "2" } });
+      fireEvent.change(reminders, { target: { value: "800" } });
+      fireEvent.click(within(form).getByRole("button", { name: "Save times" }));
+      expect(await within(form).findByText("Choose between 5 minutes and 12 hours")).toBeTruthy();
+      expect(within(form).getByText("Choose between 10 minutes and 12 hours")).toBeTruthy();
+      expect(managers.getAttribute("aria-invalid")).toBe("true");
+      fireEvent.change(managers, { target: { value: "7.5" } });
+      fireEvent.change(reminders, { target: { value: "half an hour" } });
+      fireEvent.click(within(form).getByRole("button", { name: "Save times" }));
+      expect(await within(form).findByText("Use whole minutes")).toBeTruthy();
+      expect(within(form).getByText("Enter a number of minutes")).toBeTruthy();
+      expect(api.sent("PUT /api/sites/4/alert-timing")).toHaveLength(0);
+
+      // The server may still refuse: its field issue lands on the field.
+      api.routes["PUT /api/sites/4/alert-timing"] = problem(400, "invalid-input", "Some fields are not valid", [
+        { path: "escalateAfterS", message: "Choose between 5 minutes and 12 hours" },
+      ]);
+      fireEvent.change(managers, { target: { value: "15" } });
+      fireEvent.change(reminders, { target: { value: "" } });
+      fireEvent.click(within(form).getByRole("button", { name: "Save times" }));
+      await waitFor(() => expect(api.sent("PUT /api/sites/4/alert-timing")).toHaveLength(1));
+      expect(api.sent("PUT /api/sites/4/alert-timing")[0]?.body).toEqual({ escalateAfterS: 15 * 60, renotifyEveryS: null });
+      expect(await within(form).findByText("Choose between 5 minutes and 12 hours")).toBeTruthy();
+      expect(within(form).queryByText("Enter a number of minutes")).toBeNull();
+
+      api.routes["PUT /api/sites/4/alert-timing"] = {
+        body: { alertTiming: { ...ROTA.alertTiming[0], escalateAfterS: 15 * 60, renotifyEveryS: null } },
+      };
+      fireEvent.click(within(form).getByRole("button", { name: "Save times" }));
+      await waitFor(() => expect(api.sent("PUT /api/sites/4/alert-timing")).toHaveLength(2));
+      await waitFor(() => expect(within(form).queryByText("Choose between 5 minutes and 12 hours")).toBeNull());
+      expect(await screen.findByText("Saved for Hillside Propagation")).toBeTruthy();
+    },
+    ROUTE_TEST_TIMEOUT_MS,
+  );
 });

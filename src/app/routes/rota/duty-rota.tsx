@@ -6,6 +6,7 @@ import { PanelBoundary } from "../../../components/errors/panel-boundary";
 import { RouteError } from "../../../components/errors/route-error";
 import { getSessionQueryOptions } from "../../../features/auth/api/get-session";
 import { getDutyRotaQueryOptions } from "../../../features/rota/api/get-duty-rota";
+import { AlertTiming } from "../../../features/rota/components/alert-timing";
 import { DutyRota } from "../../../features/rota/components/duty-rota";
 import { getDutyCandidatesQueryOptions } from "../../../features/rota/api/get-duty-candidates";
 import { useNow } from "../../../hooks/use-now";
@@ -23,7 +24,10 @@ export const clientLoader =
     return null;
   };
 
-/** `/duty-rota`: who is told about alerts, per zone, by day and hour. Admins and managers edit it. */
+/**
+ * `/duty-rota`: who is told about alerts, per zone, by day and hour, and per site when the managers
+ * are told and how often the person on duty is reminded. Admins and managers edit it.
+ */
 export default function DutyRotaRoute() {
   const { isAllowed } = useAuthorization();
   const canEdit = isAllowed(ALLOWED.manageGrowing);
@@ -43,6 +47,9 @@ export default function DutyRotaRoute() {
       </div>
       <PanelBoundary>
         <DutyRota people={people} nowMs={nowMs} />
+      </PanelBoundary>
+      <PanelBoundary>
+        <AlertTiming />
       </PanelBoundary>
     </div>
   );

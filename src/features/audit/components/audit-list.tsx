@@ -40,8 +40,17 @@ export function AuditEntries({ entries, hasMore, isLoadingMore, onLoadMore, empt
               <ul className="mt-2 flex flex-col gap-1 text-lg">
                 {entry.changes.map((change, i) => {
                   const words = describeChange(change, unit);
+                  const key = `${change.field}-${change.quantity ?? ""}-${i}`;
+                  // Something created had nothing before, something deleted has nothing after: one side says it all.
+                  if (entry.action === "created" || entry.action === "deleted") {
+                    return (
+                      <li key={key} data-field={change.field}>
+                        <span className="font-semibold">{words.field}:</span> <span>{entry.action === "created" ? words.new : words.old}</span>
+                      </li>
+                    );
+                  }
                   return (
-                    <li key={`${change.field}-${change.quantity ?? ""}-${i}`} data-field={change.field}>
+                    <li key={key} data-field={change.field}>
                       <span className="font-semibold">{words.field}:</span> <span>{words.old}</span>{" "}
                       <span aria-label="changed to">→</span> <strong>{words.new}</strong>
                     </li>

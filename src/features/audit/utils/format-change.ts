@@ -20,6 +20,15 @@ const FIELD_WORDS: Record<string, string> = {
   siteId: "site",
   benchId: "bench",
   archivedAtMs: "archived",
+  // A duty shift (entity "duty-rota").
+  userId: "person on duty",
+  weekdays: "days",
+  startMinute: "from",
+  endMinute: "until",
+  isFallback: "fallback",
+  // A site's alert timing.
+  escalateAfterS: "managers told after",
+  renotifyEveryS: "person on duty reminded every",
   offset: "calibration offset",
   gain: "calibration gain",
 };
