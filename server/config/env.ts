@@ -47,8 +47,8 @@ export const envSchema = z.object({
   ALERT_TICK: duration("5s").describe("How often the alert engine re-evaluates every bench without a new reading"),
   SENSOR_SILENT_AFTER: duration("10m").describe("A sensor with no reading for this long raises a sensor-silent alert"),
   ALERT_GROUP_WINDOW: duration("60s").describe("Alerts of one zone that rise within this time go out as one e-mail"),
-  ALERT_ESCALATE_AFTER: duration("20m").describe("A raised alert not acknowledged for this long is mailed to the managers"),
-  ALERT_RENOTIFY_EVERY: duration("30m").describe("While raised and unacknowledged, the person on duty is mailed again this often"),
+  ALERT_ESCALATE_AFTER: duration("20m").describe("A raised alert not acknowledged for this long is mailed to the managers (default for sites without their own time, set on the duty rota page)"),
+  ALERT_RENOTIFY_EVERY: duration("30m").describe("While raised and unacknowledged, the person on duty is mailed again this often (default for sites without their own interval)"),
   ACK_LINK_LIFETIME: duration("24h").describe("How long an e-mailed acknowledge link works"),
   MAIL_RETRY_FIRST: duration("5s").describe("Wait before the first retry of an e-mail the relay refused; doubles up to 5 min"),
   READING_RETENTION_DAYS: z.coerce
