@@ -5,6 +5,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { createInterface } from "node:readline";
 import Database from "better-sqlite3";
+import { SMTPServer, type SMTPServerSession } from "smtp-server";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { caughtMailResponseSchema } from "../../shared/schemas/mail.js";
@@ -17,8 +18,10 @@ import { signIn, startTestServer, waitFor } from "../support/test-server.js";
 const TSX = join(PROJECT_ROOT, "node_modules/tsx/dist/cli.mjs");
 const dir = mkdtempSync(join(tmpdir(), "benchwarden-shutdown-"));
 const children: ChildProcess[] = [];
+const relays: SMTPServer[] = [];
 afterAll(() => {
-  for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
+  for (const c of children) if (c.exitCode === null && c.signalCode === null) c.kill("SIGKILL");
+  for (const r of relays) r.close(() => undefined);
   rmSync(dir, { recursive: true, force: true });
 });
 
@@ -29,6 +32,87 @@ async function freePort(): Promise<number> {
       srv.close(() => resolve(port));
     });
   });
+}
+
+/** Rejects when `promise` has not settled within `ms` (every wait in these tests is bounded). */
+function within<T>(promise: Promise<T>, ms: number, what: string): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`${what}: not within ${ms} ms`)), ms);
+    promise.then(
+      (v) => (clearTimeout(timer), resolve(v)),
+      (e: unknown) => (clearTimeout(timer), reject(e instanceof Error ? e : new Error(String(e)))),
+    );
+  });
+}
+
+/** server/main.ts as a real child process, as in production; resolves once it says it is running. */
+async function startServerProcess(dbDir: string, env: Record<string, string>): Promise<{ child: ChildProcess; baseUrl: string }> {
+  const [httpPort, mqttPort] = [await freePort(), await freePort()];
+  const child = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
+    cwd: PROJECT_ROOT,
+    env: { ...process.env, TSX_TSCONFIG_PATH: "tsconfig.server.json", PORT: String(httpPort), HOST: "127.0.0.1", MQTT_PORT: String(mqttPort), MQTT_HOST: "127.0.0.1", DATABASE_PATH: join(dbDir, "db.sqlite"), DEMO: "1", SIM: "0", LOG_LEVEL: "warn", ...env },
+    stdio: ["ignore", "pipe", "inherit"],
+  });
+  children.push(child);
+  const running = new Promise<void>((resolve, reject) => {
+    child.stdout!.on("data", (c: Buffer) => c.toString().includes("Benchwarden is running") && resolve());
+    child.once("exit", (code) => reject(new Error(`the server exited with ${code} before it was running`)));
+  });
+  await within(running, 60_000, "server start");
+  return { child, baseUrl: `http://127.0.0.1:${httpPort}` };
+}
+
+function exitOf(child: ChildProcess): Promise<number | null> {
+  if (child.exitCode !== null || child.signalCode !== null) return Promise.resolve(child.exitCode);
+  return new Promise((resolve) => child.once("exit", (code) => resolve(code)));
+}
+
+/**
+ * A mail relay on loopback that is slow to accept: it answers the end of DATA with 250 only
+ * `holdMs` after the message arrived, and keeps a message only if the client was still connected
+ * to hear that 250 (a client that went away before it never learnt the message was taken).
+ */
+async function startSlowRelay(holdMs: number) {
+  const accepted: { messageId: string; to: string[]; atMs: number }[] = [];
+  let transactions = 0;
+  const closed = new Set<string>();
+  let dataStarted!: () => void;
+  const firstData = new Promise<void>((resolve) => (dataStarted = resolve));
+  const server = new SMTPServer({
+    // smtp-server's built-in certificate has expired (STACK.md): plain SMTP on loopback only.
+    secure: false,
+    disabledCommands: ["STARTTLS"],
+    authOptional: true,
+    logger: false,
+    closeTimeout: 1000,
+    onMailFrom(_address, _session, callback) {
+      transactions++;
+      callback();
+    },
+    onClose(session: SMTPServerSession) {
+      closed.add(session.id);
+    },
+    onData(stream, session, callback) {
+      dataStarted();
+      const chunks: Buffer[] = [];
+      stream.on("data", (c: Buffer) => chunks.push(c));
+      stream.on("end", () => {
+        setTimeout(() => {
+          if (closed.has(session.id)) return callback(new Error("client went away"));
+          const raw = Buffer.concat(chunks).toString("utf8");
+          accepted.push({ messageId: /^Message-ID:\s*(<[^>]+>)/im.exec(raw)?.[1] ?? "", to: session.envelope.rcptTo.map((r) => r.address), atMs: Date.now() });
+          callback();
+        }, holdMs);
+      });
+    },
+  });
+  relays.push(server);
+  await new Promise<void>((resolve, reject) => {
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => resolve());
+  });
+  const { port } = server.server.address() as { port: number };
+  return { url: `smtp://127.0.0.1:${port}`, accepted, transactions: () => transactions, firstData };
 }
 
 describe("graceful shutdown", () => {
@@ -110,4 +194,57 @@ describe("graceful shutdown", () => {
       await second.stop();
     }
   }, 60_000);
+
+  it("SIGTERM during an SMTP conversation: the send finishes and is marked sent before the exit, and is not sent again after a restart", async () => {
+    const holdMs = 2500;
+    const relay = await startSlowRelay(holdMs);
+    const dbDir = mkdtempSync(join(dir, "outbox-term-"));
+    // SMTP_URL: the server talks to this relay, not to its own sink. The first retry comes 1 s after a failure.
+    const env = { SMTP_URL: relay.url, MAIL_RETRY_FIRST: "1s", ALERT_TICK: "1h" };
+    const first = await startServerProcess(dbDir, env);
+
+    // A password reset goes through the outbox like every e-mail, and the worker starts sending it at once.
+    const res = await fetch(`${first.baseUrl}/api/password-resets`, { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify({ email: "grower@nursery.test" }) });
+    expect(res.status).toBe(202);
+    await within(relay.firstData, 15_000, "the relay receiving DATA");
+    expect(relay.accepted).toHaveLength(0); // the relay has not answered yet: the send is in progress
+
+    first.child.kill("SIGTERM");
+    const code = await within(exitOf(first.child), 20_000, "exit after SIGTERM");
+    const exitedAtMs = Date.now();
+
+    expect(code).toBe(0);
+    expect(relay.accepted).toHaveLength(1);
+    expect(relay.accepted[0]!.atMs).toBeLessThanOrEqual(exitedAtMs);
+    expect(relay.accepted[0]!.to).toEqual(["grower@nursery.test"]);
+    expect(relay.transactions()).toBe(1);
+    const readOutbox = () => {
+      const db = new Database(join(dbDir, "db.sqlite"), { readonly: true });
+      try {
+        return db.prepare("SELECT message_id AS messageId, to_address AS toAddress, attempts, sent_at_ms AS sentAtMs, last_error AS lastError FROM outbox").all() as {
+          messageId: string;
+          toAddress: string;
+          attempts: number;
+          sentAtMs: number | null;
+          lastError: string | null;
+        }[];
+      } finally {
+        db.close();
+      }
+    };
+    const rows = readOutbox();
+    expect(rows).toHaveLength(1);
+    expect(rows[0]).toMatchObject({ messageId: relay.accepted[0]!.messageId, toAddress: "grower@nursery.test", attempts: 1, lastError: null });
+    expect(rows[0]!.sentAtMs).not.toBeNull();
+
+    // Restart on the same database: the outbox sends at start and polls every 5 s; a row it took for
+    // unsent would reach the relay well within 7 s (past the 1 s first retry and one poll).
+    const second = await startServerProcess(dbDir, env);
+    await new Promise((r) => setTimeout(r, 7000));
+    second.child.kill("SIGTERM");
+    expect(await within(exitOf(second.child), 20_000, "exit of the restarted server")).toBe(0);
+    expect(relay.transactions()).toBe(1);
+    expect(relay.accepted).toHaveLength(1);
+    expect(readOutbox()).toEqual(rows);
+  }, 120_000);
 });
