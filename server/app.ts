@@ -57,8 +57,8 @@ export interface AppDeps extends PropagationServices {
   hub: LiveHub;
   metrics: Metrics;
   logger: Logger;
-  /** For /healthz: whether the MQTT side is up. */
-  isBrokerUp?: () => boolean;
+  /** For /healthz: "ok" when the MQTT side is up, else what is wrong. */
+  brokerStatus?: () => string;
   jwtSecret: string;
   sessionHours: number;
   demo: boolean;
@@ -107,7 +107,7 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
 
   // Services that audit a change find the signed-in principal through this (modules/audit/actor-context.ts).
   app.use(actorContext());
-  app.use(healthRoutes(table, deps.dataSource, deps.metrics, deps.isBrokerUp ?? (() => true)));
+  app.use(healthRoutes(table, deps.dataSource, deps.metrics, deps.brokerStatus ?? (() => "ok")));
   app.use(sessionRoutes(table, deps.users, { secret: deps.jwtSecret, sessionHours: deps.sessionHours, demo: deps.demo }));
   app.use(usersRoutes(table, deps.users));
   app.use(sensorsRoutes(table, deps.sensors));

@@ -47,13 +47,17 @@ import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
 import { createPropagation } from "./modules/batches/propagation.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
+import { connectExternalBroker, type ExternalBroker } from "./mqtt/external-broker.js";
 import { createIngest } from "./mqtt/ingest.js";
 
 export const PROJECT_ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 
 export interface RunningServer {
   httpPort: number;
+  /** Port of the broker the sensors publish to (the embedded one, or MQTT_URL's). */
   mqttPort: number;
+  /** Where the sensors publish, without credentials. */
+  mqttUrl: string;
   appUrl: string;
   demo: boolean;
   /** Path of demo-sensors.json in demo mode. */
@@ -65,8 +69,8 @@ export interface RunningServer {
   users: UsersService;
   /** The Express app, for tests that inspect its routes. */
   app: Express;
-  /** The embedded broker. */
-  mqtt: EmbeddedBroker;
+  /** The embedded broker, or the connection to the external one (MQTT_URL). */
+  mqtt: EmbeddedBroker | ExternalBroker;
   /** The alert pipeline, for tests that drive time: pass() runs one evaluation → grouping → sending round. */
   alerts: { engine: AlertEngine; notifier: Notifier; outbox: Outbox; service: AlertsService; pass(): Promise<void> };
   dataSource: DataSource;
@@ -102,7 +106,7 @@ async function resolveDemoMode(env: Env, dataSource: DataSource): Promise<boolea
   return (await isEmptyDatabase(dataSource)) || (await isDemoDatabase(dataSource));
 }
 
-function startSimulator(env: Env, mqttPort: number, credentialsPath: string, logger: Logger): ChildProcess {
+function startSimulator(env: Env, brokerUrl: string, credentialsPath: string, logger: Logger): ChildProcess {
   const tsxCli = fileURLToPath(import.meta.resolve("tsx/cli"));
   const args = [
     tsxCli,
@@ -110,7 +114,7 @@ function startSimulator(env: Env, mqttPort: number, credentialsPath: string, log
     join(PROJECT_ROOT, "tsconfig.server.json"),
     join(PROJECT_ROOT, "sensors-sim/index.ts"),
     "--broker",
-    `mqtt://127.0.0.1:${mqttPort}`,
+    brokerUrl,
     "--credentials",
     credentialsPath,
     "--interval",
@@ -131,11 +135,6 @@ function startSimulator(env: Env, mqttPort: number, credentialsPath: string, log
 /** Start everything in order: database → broker → HTTP → simulator. stop() undoes it in reverse. */
 export async function start(env: Env, options: StartOptions = {}): Promise<RunningServer> {
   const logger = options.logger ?? createLogger(env.LOG_LEVEL);
-  if (env.MQTT_URL) {
-    // TODO(#11): connect to an external broker through a shared subscription.
-    throw new ConfigError(["MQTT_URL: an external broker is not supported yet; unset it to use the embedded broker"]);
-  }
-
   const dataSource = createDataSource(env.DATABASE_PATH);
   await dataSource.initialize();
   await dataSource.runMigrations({ transaction: "each" });
@@ -290,7 +289,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     Number(((await dataSource.query("SELECT COUNT(*) AS n FROM outbox WHERE sent_at_ms IS NULL")) as { n: number }[])[0]?.n ?? 0),
   );
 
-  let broker: EmbeddedBroker | null = null;
+  let broker: EmbeddedBroker | ExternalBroker | null = null;
   let http: Server | null = null;
   let simulator: ChildProcess | null = null;
   let stopping: Promise<void> | null = null;
@@ -322,15 +321,33 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     })());
 
   try {
-    broker = await startBroker(env.MQTT_HOST, env.MQTT_PORT, {
-      sensors,
-      metrics,
-      ingest: createIngest({ sensors, writer, metrics, logger }),
-      logger,
-      onSensorOffline: (sensorId) => void engine.onSensorOffline(sensorId),
-      limits: { maxPacketBytes: env.MQTT_MAX_PACKET_BYTES, bytesPerSecond: env.MQTT_BYTES_PER_SECOND, burstBytes: 4 * env.MQTT_BYTES_PER_SECOND },
-    });
-    sensors.onRevoked = (sensorId) => broker?.disconnectSensor(sensorId);
+    const ingest = createIngest({ sensors, writer, metrics, logger });
+    let brokerUrl: string;
+    let brokerPort: number;
+    if (env.MQTT_URL) {
+      // The broker signs the sensors in: a rotated or disabled sensor is refused there once the
+      // exported password file is reloaded (docs/mosquitto.md); ingest refuses a disabled one now.
+      const external = await connectExternalBroker(
+        { url: env.MQTT_URL, username: env.MQTT_USERNAME, password: env.MQTT_PASSWORD, clientId: env.MQTT_CLIENT_ID, shareGroup: env.MQTT_SHARE_GROUP, sessionExpiryMs: env.MQTT_SESSION_EXPIRY },
+        { ingest, metrics, logger, onSensorOffline: (sensorId) => engine.onSensorOffline(sensorId), flushWrites: () => writer.flush() },
+      );
+      broker = external;
+      brokerUrl = external.url;
+      brokerPort = Number(new URL(external.url).port || (external.url.startsWith("mqtts:") ? 8883 : 1883));
+    } else {
+      const embedded = await startBroker(env.MQTT_HOST, env.MQTT_PORT, {
+        sensors,
+        metrics,
+        ingest,
+        logger,
+        onSensorOffline: (sensorId) => void engine.onSensorOffline(sensorId),
+        limits: { maxPacketBytes: env.MQTT_MAX_PACKET_BYTES, bytesPerSecond: env.MQTT_BYTES_PER_SECOND, burstBytes: 4 * env.MQTT_BYTES_PER_SECOND },
+      });
+      broker = embedded;
+      brokerUrl = `mqtt://127.0.0.1:${embedded.port}`;
+      brokerPort = embedded.port;
+      sensors.onRevoked = (sensorId) => embedded.disconnectSensor(sensorId);
+    }
 
     const windowSettings = new WindowSettingsService(dataSource, windows);
     const app = createApp({
@@ -352,7 +369,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       hub,
       metrics,
       logger,
-      isBrokerUp: () => broker?.isListening() ?? false,
+      brokerStatus: () => (!broker ? "not listening" : "port" in broker ? (broker.isListening() ? "ok" : "not listening") : broker.isConnected() ? "ok" : "not connected"),
       staticDir: options.staticDir ?? join(PROJECT_ROOT, "dist"),
     });
     http = createServer(app);
@@ -367,10 +384,10 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
 
     retention.start();
     if (demo && demoCredentialsPath && (env.SIM ?? true)) {
-      simulator = startSimulator(env, broker.port, demoCredentialsPath, logger);
+      simulator = startSimulator(env, brokerUrl, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: broker.port, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, retention, stop };
+    return { httpPort, mqttPort: brokerPort, mqttUrl: brokerUrl, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, retention, stop };
   } catch (err) {
     await stop();
     throw err;

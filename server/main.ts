@@ -37,7 +37,9 @@ async function main(): Promise<void> {
   const lines = [
     "",
     `  Benchwarden is running at ${server.appUrl}`,
-    `  Sensors publish to mqtt://localhost:${server.mqttPort}`,
+    env.MQTT_URL
+      ? `  Sensors publish to the external broker ${server.mqttUrl} (it signs them in; see docs/mosquitto.md)`
+      : `  Sensors publish to mqtt://localhost:${server.mqttPort}`,
   ];
   if (server.demo) {
     lines.push("", "  Demo nursery: sign in as any of these, password " + JSON.stringify(env.DEMO_PASSWORD));

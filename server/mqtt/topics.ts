@@ -20,3 +20,11 @@ export function parseSensorTopic(topic: string): SensorTopic | null {
   if (!sensorId || (kind !== "readings" && kind !== "status")) return null;
   return { sensorId, kind };
 }
+
+/**
+ * What a server instance subscribes to at an external broker: every sensor's readings and status
+ * (last will), through a shared subscription so the instances of one group split the messages.
+ */
+export function sharedSensorFilters(group: string): { readings: string; status: string } {
+  return { readings: `$share/${group}/${TOPIC_PREFIX}+/readings`, status: `$share/${group}/${TOPIC_PREFIX}+/status` };
+}

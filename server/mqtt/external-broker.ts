@@ -1,0 +1,217 @@
+import mqtt, { type ErrorWithReasonCode, type IClientOptions } from "mqtt";
+import { ConfigError } from "../config/env.js";
+import type { Logger } from "../lib/logger.js";
+import type { Metrics } from "../lib/metrics.js";
+import type { IngestReadings } from "./ingest.js";
+import { parseSensorTopic, sharedSensorFilters } from "./topics.js";
+
+export interface ExternalBrokerOptions {
+  /** MQTT_URL; user name and password in it are used unless given below. */
+  url: string;
+  username?: string;
+  password?: string;
+  /**
+   * Stable per instance (default "benchwarden"): the broker keeps this session, and the share of
+   * the readings it is dealt, while the server is away.
+   */
+  clientId?: string;
+  shareGroup: string;
+  sessionExpiryMs: number;
+  /** How long start-up waits for the first subscription before going on (and retrying behind). */
+  firstConnectMs?: number;
+  reconnectMs?: number;
+}
+
+export interface ExternalBrokerDeps {
+  ingest: IngestReadings;
+  metrics: Metrics;
+  logger: Logger;
+  /** A probe's last will arrived: it went away without saying goodbye. */
+  onSensorOffline?: (sensorId: string) => Promise<void>;
+  /** Commit what the batch writer holds now (on stop, so its messages can be acknowledged). */
+  flushWrites?: () => void;
+}
+
+export interface ExternalBroker {
+  /** The broker's address without credentials (where the sensors publish). */
+  url: string;
+  clientId: string;
+  /** Connected and subscribed: /healthz is down otherwise. */
+  isConnected(): boolean;
+  /** Acknowledge what is committed, leave the rest to the broker (it re-sends to this session), disconnect. */
+  close(): Promise<void>;
+}
+
+/** CONNACK codes that mean the server's own credentials or rights are wrong (MQTT 5 §3.2.2.2). */
+const REFUSED_SIGN_IN = new Set([134, 135, 138, 140]);
+
+/**
+ * The server as a client of an external broker (MQTT_URL), instead of the embedded aedes. The
+ * broker authenticates the sensors and enforces who may publish where; this subscribes to every
+ * sensor's readings and last wills through a shared subscription, at QoS 1, in a persistent MQTT 5
+ * session (clean start off, a session expiry, a stable client id), so what arrives while the
+ * server is down waits at the broker.
+ *
+ * Acknowledge after commit: mqtt.js's customHandleAcks hands each QoS 1 message over with a
+ * callback that sends its PUBACK, so it is called only once ingest has committed the readings (or
+ * refused them as bad input: a poison message must not come back for ever). A message whose
+ * commit failed is not acknowledged and the connection is dropped, so the broker re-sends it on
+ * the next one. mqtt.js handles one incoming packet at a time and waits for that callback before
+ * the next, so messages are processed in order, each held until its batch commits.
+ */
+export async function connectExternalBroker(options: ExternalBrokerOptions, deps: ExternalBrokerDeps): Promise<ExternalBroker> {
+  const { ingest, metrics, logger } = deps;
+  const given = new URL(options.url);
+  const username = options.username ?? (given.username ? decodeURIComponent(given.username) : undefined);
+  const password = options.password ?? (given.password ? decodeURIComponent(given.password) : undefined);
+  given.username = "";
+  given.password = "";
+  const url = given.toString().replace(/\/$/, "");
+  const clientId = options.clientId ?? "benchwarden";
+  const filters = sharedSensorFilters(options.shareGroup);
+
+  /** Bumped on every new connection: a PUBACK belongs to the connection its message came on. */
+  let connection = 0;
+  let subscribed = false;
+  let closing = false;
+  const inFlight = new Set<Promise<void>>();
+
+  const handle = async (topic: string, payload: Buffer): Promise<void> => {
+    const parsed = parseSensorTopic(topic);
+    if (!parsed) {
+      metrics.mqttRefused.inc({ reason: "foreign-topic" });
+      logger.warn({ topic }, "message on a topic outside the sensor contract ignored");
+      return;
+    }
+    if (parsed.kind === "status") {
+      if (payload.toString("utf8") === "offline") {
+        logger.info({ sensorId: parsed.sensorId }, "sensor reported offline (last will)");
+        await deps.onSensorOffline?.(parsed.sensorId);
+      }
+      return;
+    }
+    // The broker's ACL lets a sensor publish only under its own id, so the topic names the sender.
+    await ingest(parsed.sensorId, payload);
+  };
+
+  const clientOptions: IClientOptions = {
+    protocolVersion: 5,
+    clientId,
+    clean: false,
+    properties: { sessionExpiryInterval: Math.min(0xffffffff, Math.round(options.sessionExpiryMs / 1000)) },
+    username,
+    password,
+    reconnectPeriod: options.reconnectMs ?? 1000,
+    connectTimeout: 10_000,
+    // The subscription lives in the session; it is renewed on every connect below.
+    resubscribe: false,
+    customHandleAcks: (topic, payload, _packet, ack) => {
+      // Stopping: leave it unacknowledged; the broker re-sends it when this session comes back.
+      if (closing) return;
+      const mine = connection;
+      const work = handle(topic, payload).then(
+        () => {
+          // A PUBACK on a later connection could acknowledge another message that reuses the id.
+          if (mine === connection && client.connected) ack(0);
+        },
+        (err: unknown) => {
+          logger.error({ err, topic }, "message not stored; reconnecting so the broker sends it again");
+          if (mine === connection && !closing) client.reconnect();
+        },
+      );
+      inFlight.add(work);
+      void work.finally(() => inFlight.delete(work));
+    },
+  };
+  const client = mqtt.connect(url, clientOptions);
+
+  // QoS 0 readings have nothing to acknowledge (QoS 1 messages are emitted here too, after their PUBACK).
+  client.on("message", (topic, payload, packet) => {
+    if (packet.qos !== 0 || closing) return;
+    handle(topic, payload).catch((err: unknown) => logger.error({ err, topic }, "QoS 0 message not stored"));
+  });
+
+  let firstReady: (() => void) | null = null;
+  let firstRefused: ((err: Error) => void) | null = null;
+  client.on("connect", (connack) => {
+    connection++;
+    subscribed = false;
+    logger.info({ url, clientId, sessionPresent: connack.sessionPresent }, "connected to the MQTT broker");
+    client.subscribe([filters.readings, filters.status], { qos: 1 }, (err, granted) => {
+      const refused = (granted ?? []).filter((g) => g.qos > 2);
+      if (err || refused.length > 0) {
+        const reason = err?.message ?? `the broker refused ${refused.map((g) => `${g.topic} (reason ${g.qos})`).join(", ")}`;
+        logger.error({ reason }, "subscription to the sensor topics failed; the server user needs read access to benchwarden/v1/sensors/+/readings and +/status");
+        firstRefused?.(new ConfigError([`MQTT_URL: ${reason}; give the server's user read access to benchwarden/v1/sensors/+/readings and benchwarden/v1/sensors/+/status`]));
+        return;
+      }
+      subscribed = true;
+      firstReady?.();
+    });
+  });
+  client.on("disconnect", (packet) => {
+    if (packet.reasonCode === 142) {
+      logger.error({ clientId }, "another client took over this server's MQTT session: every server instance needs its own MQTT_CLIENT_ID");
+    } else {
+      logger.warn({ reasonCode: packet.reasonCode, reason: packet.properties?.reasonString }, "the MQTT broker disconnected the server");
+    }
+  });
+  client.on("close", () => {
+    if (subscribed && !closing) logger.warn({ url }, "connection to the MQTT broker lost; reconnecting");
+    subscribed = false;
+  });
+  client.on("error", (err: Error | ErrorWithReasonCode) => {
+    const code = "code" in err ? Number(err.code) : NaN;
+    if (REFUSED_SIGN_IN.has(code)) {
+      logger.error({ url, username, code }, `the MQTT broker refused the server's sign-in: ${err.message}`);
+      firstRefused?.(new ConfigError([`MQTT_URL: the broker refused the server's sign-in as ${JSON.stringify(username ?? "")} (${err.message}); check MQTT_USERNAME / MQTT_PASSWORD and the broker's password file`]));
+    } else {
+      logger.warn({ url, err: err.message }, "MQTT broker connection error");
+    }
+  });
+
+  // Start-up waits for the first subscription: a wrong password or ACL stops it with a clear
+  // message; a broker that is merely not up yet is retried behind (/healthz says so meanwhile).
+  try {
+    await new Promise<void>((resolve, reject) => {
+      const timer = setTimeout(() => {
+        logger.warn({ url }, "the MQTT broker is not reachable yet; starting anyway and retrying");
+        resolve();
+      }, options.firstConnectMs ?? 10_000);
+      firstReady = () => {
+        clearTimeout(timer);
+        resolve();
+      };
+      firstRefused = (err) => {
+        clearTimeout(timer);
+        reject(err);
+      };
+    });
+  } catch (err) {
+    await client.endAsync(true);
+    throw err;
+  } finally {
+    firstReady = null;
+    firstRefused = null;
+  }
+
+  let closed: Promise<void> | null = null;
+  return {
+    url,
+    clientId,
+    isConnected: () => client.connected && subscribed,
+    close: () =>
+      (closed ??= (async () => {
+        closing = true;
+        deps.flushWrites?.();
+        await Promise.allSettled([...inFlight]);
+        // end() sends what is queued (the PUBACKs above) and then DISCONNECT; a broker that is
+        // gone cannot be said goodbye to, so do not wait for it long.
+        const ended = client.endAsync();
+        if (!(await Promise.race([ended.then(() => true), new Promise<false>((r) => setTimeout(() => r(false), 3000).unref())]))) {
+          await client.endAsync(true);
+        }
+        logger.info({ url }, "disconnected from the MQTT broker");
+      })()),
+  };
+}
