@@ -1,10 +1,12 @@
 #!/usr/bin/env bash
-# Makes sure the Debian packages the test suites need are installed (Chromium for browser tests).
+# Makes sure the Debian packages the test suites need are installed (Chromium for browser tests,
+# mosquitto for the external-broker tests; those start their own mosquitto, never the system service).
 # As root on Debian it installs them; otherwise it stops and prints the exact command to run.
 set -euo pipefail
 
 missing=()
 [ -x /usr/bin/chromium ] || missing+=(chromium)
+[ -x /usr/sbin/mosquitto ] || missing+=(mosquitto)
 
 if [ ${#missing[@]} -eq 0 ]; then
   exit 0
@@ -15,6 +17,10 @@ if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null 2>&1; then
   export DEBIAN_FRONTEND=noninteractive
   apt-get update -qq
   apt-get install -y -qq "${missing[@]}" >/dev/null
+  # The package enables a system mosquitto on port 1883; the tests start their own, so stop it.
+  if [[ " ${missing[*]} " == *" mosquitto "* ]] && command -v systemctl >/dev/null 2>&1; then
+    systemctl disable --now mosquitto >/dev/null 2>&1 || true
+  fi
   exit 0
 fi
 
