@@ -2,6 +2,7 @@ import { existsSync } from "node:fs";
 import { join } from "node:path";
 import cookieParser from "cookie-parser";
 import express, { type Express } from "express";
+import compression from "compression";
 import helmet from "helmet";
 import type { DataSource } from "typeorm";
 import { RouteTable, tokenFromRequest, verifySessionToken, type Principal } from "./lib/auth.js";
@@ -89,6 +90,10 @@ export function createApp(deps: AppDeps): Express & { locals: { routeTable: Rout
       strictTransportSecurity: false,
     }),
   );
+  // A zone's month of series is most of a megabyte of JSON: gzip it for tablets on greenhouse
+  // Wi-Fi. The live stream says Cache-Control: no-transform, which keeps it uncompressed (its
+  // events must leave as soon as they are written).
+  app.use(compression());
   app.use("/api", refuseCrossSite);
   app.use(express.json({ limit: "100kb" }));
   app.use(cookieParser());

@@ -113,11 +113,19 @@ describe("HTTP API", () => {
     }
   });
 
-  it("streams committed readings as server-sent events", async () => {
+  it("gzips JSON answers for a client that accepts it", async () => {
+    const res = await request(server.baseUrl).get("/api/zones").set("Authorization", `Bearer ${token}`).set("Accept-Encoding", "gzip").expect(200);
+    expect(res.headers["content-encoding"]).toBe("gzip");
+    expect(res.body).toHaveProperty("zones"); // supertest unzips
+  });
+
+  it("streams committed readings as server-sent events, uncompressed even for a client that accepts gzip", async () => {
     const credential = server.credentials.find((c) => c.kind === "medium")!;
     const received = new Promise<unknown>((resolve, reject) => {
-      const req = http.get(`${server.baseUrl}/api/stream`, { headers: { Authorization: `Bearer ${token}` } }, (res) => {
+      // The stream sends Cache-Control: no-transform, which keeps compression off it.
+      const req = http.get(`${server.baseUrl}/api/stream`, { headers: { Authorization: `Bearer ${token}`, "Accept-Encoding": "gzip" } }, (res) => {
         expect(res.headers["content-type"]).toBe("text/event-stream");
+        expect(res.headers["content-encoding"]).toBeUndefined();
         let buffer = "";
         res.on("data", (chunk: Buffer) => {
           buffer += chunk.toString();
