@@ -2,6 +2,7 @@ import { randomBytes } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import Database from "better-sqlite3";
 import mqtt, { type MqttClient } from "mqtt";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -40,10 +41,13 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await Promise.all(clients.map((c) => c.endAsync(true)));
-  await server?.stop();
-  await broker?.cleanup();
-  if (dir) rmSync(dir, { recursive: true, force: true });
+  try {
+    await Promise.all(clients.map((c) => c.endAsync(true)));
+    await Promise.race([server?.stop(), new Promise((r) => setTimeout(r, 20_000))]);
+  } finally {
+    await broker?.cleanup();
+    if (dir) rmSync(dir, { recursive: true, force: true });
+  }
 });
 
 async function sensor(kind: "air" | "medium" | "combined", index = 0, protocolVersion: 4 | 5 = 4) {
@@ -164,6 +168,28 @@ describe("the server behind an external mosquitto", () => {
     await expectStored(credential.id, 2);
     expect(server.metrics.mqttMessages.get()).toBe(1);
     expect(server.metrics.readingsRejected.get({ reason: "malformed-json" })).toBe(0);
+  });
+
+  it("stopping mid-stream (what SIGTERM does) acknowledges every committed message and leaves the rest with mosquitto", async () => {
+    const { credential, client, topic } = await sensor("air", 2);
+    const total = 2000;
+    const baseMs = Date.now() - 3_600_000;
+    const sends = Array.from({ length: total }, (_, i) =>
+      client.publishAsync(topic, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 21 + (i % 50) / 10, t: (baseMs + i * 1000) / 1000 }]), { qos: 1 }),
+    );
+    await waitFor(async () => (storedCount(credential.id) >= 300 ? true : undefined), 10_000);
+    await server.stop();
+    const file = new Database(join(dir, "benchwarden.sqlite"), { readonly: true });
+    const atStop = (file.prepare("SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ?").get(credential.id) as { n: number }).n;
+    file.close();
+    expect(atStop).toBeLessThan(total);
+    await Promise.all(sends); // mosquitto has them all
+
+    server = await startTestServer(brokerEnv(), { dir });
+    await expectStored(credential.id, total, 20_000);
+    // Nothing the stopped instance committed came back: it was acknowledged before the disconnect.
+    expect(server.metrics.readingsDuplicate.get()).toBe(0);
+    expect(server.metrics.mqttMessages.get()).toBe(total - atStop);
   });
 
   it("a probe's last will through mosquitto raises a sensor-silent alert", async () => {

@@ -9,6 +9,12 @@ import { mosquittoPasswordFile } from "../../server/mqtt/mosquitto-files.js";
 export const MOSQUITTO_BINARY = "/usr/sbin/mosquitto";
 const TSX = join(PROJECT_ROOT, "node_modules/tsx/dist/cli.mjs");
 
+// A last resort when a test file dies before its afterAll: no broker outlives the test process.
+const running = new Set<ChildProcess>();
+process.once("exit", () => {
+  for (const child of running) child.kill("SIGKILL");
+});
+
 /** A throwaway Debian mosquitto on a free loopback port, with its files in a temporary folder. */
 export interface Mosquitto {
   port: number;
@@ -105,6 +111,9 @@ export async function startMosquitto(options: { serverUser: string; serverPasswo
   const log = () => stderr;
   const launch = async () => {
     child = spawn(MOSQUITTO_BINARY, ["-c", conf], { stdio: ["ignore", "ignore", "pipe"] });
+    const started = child;
+    running.add(started);
+    started.once("exit", () => running.delete(started));
     child.stderr!.on("data", (chunk: Buffer) => (stderr += chunk.toString()));
     await waitForPort(port, 10_000, child, log);
   };
