@@ -201,6 +201,11 @@ export type BenchCardResponse = z.infer<typeof benchCardResponseSchema>;
 
 /** PUT /api/rounds/:id/benches/:benchId/check */
 export const checkBenchInputSchema = z.object({
+  /**
+   * When the grower tapped it on the tablet. A check-off made offline is sent later; without this
+   * it would carry the time it reached the server. Kept between the round's start and now.
+   */
+  checkedAtMs: z.number().int().positive().optional(),
   note: z
     .string()
     .trim()

@@ -237,6 +237,23 @@ describe("a walk-through of one zone", () => {
     await api().post(`/api/rounds/${all.id}/abandon`).auth(grower, { type: "bearer" }).expect(200);
   });
 
+  it("a check-off carries the time it was tapped on the tablet (sent later after being offline), held between the round's start and now", async () => {
+    const walk = startRoundResponseSchema.parse((await api().post("/api/rounds").auth(grower, { type: "bearer" }).send({ zoneId: layout.zones[1]!.id }).expect(201)).body).round;
+    const [b1, b2, b3] = layout.benches.filter((b) => b.zoneId === layout.zones[1]!.id);
+    const check = async (benchId: number, checkedAtMs: number) =>
+      checkBenchResponseSchema.parse((await api().put(`/api/rounds/${walk.id}/benches/${benchId}/check`).auth(grower, { type: "bearer" }).send({ checkedAtMs }).expect(200)).body).bench.check!.atMs;
+    await new Promise((r) => setTimeout(r, 400));
+    const tappedMs = walk.startedAtMs + 200; // tapped while offline, sent 200 ms or more later
+    expect(await check(b1!.id, tappedMs)).toBe(tappedMs);
+    // A tablet clock far off is held inside the round: not before it started, not after now.
+    expect(await check(b2!.id, walk.startedAtMs - 86_400_000)).toBe(walk.startedAtMs);
+    const beforeMs = Date.now();
+    const future = await check(b3!.id, beforeMs + 86_400_000);
+    expect(future).toBeGreaterThanOrEqual(beforeMs);
+    expect(future).toBeLessThanOrEqual(Date.now());
+    await api().post(`/api/rounds/${walk.id}/abandon`).auth(grower, { type: "bearer" }).expect(200);
+  });
+
   it("a viewer reads rounds but cannot walk one", async () => {
     const viewer = await signIn(server, "viewer");
     await api().get(`/api/rounds/${round.id}/cards`).auth(viewer, { type: "bearer" }).expect(200);

@@ -380,7 +380,9 @@ export class RoundsService {
     if (existing) {
       if (input.note !== undefined && input.note !== existing.note) await repo.update({ id: existing.id }, { note: input.note });
     } else {
-      const nowMs = this.now();
+      // The tablet's time of the tap (an offline check-off arrives later), held between the
+      // round's start and now so a wrong tablet clock cannot put it outside the round.
+      const nowMs = input.checkedAtMs === undefined ? this.now() : Math.min(this.now(), Math.max(round.startedAtMs, input.checkedAtMs));
       const card = await this.cardOf(round, scope, entry, undefined, nowMs);
       const snapshot: CheckSnapshot = {
         period: { fromMs: card.period.fromMs, toMs: card.period.toMs },

@@ -81,7 +81,7 @@ function WalkRound({ roundId }: { roundId: number }) {
   const unchecked = states.filter((s) => s.check.kind === "unchecked");
 
   function onCheck(card: BenchCard) {
-    check.mutate({ label: `Check-off · ${card.benchName}`, detail: `${round.scopeLabel}, round of ${formatSiteDateTime(round.startedAtMs, tz)}`, roundId, benchId: card.benchId, input: {} });
+    check.mutate({ label: `Check-off · ${card.benchName}`, detail: `${round.scopeLabel}, round of ${formatSiteDateTime(round.startedAtMs, tz)}`, roundId, benchId: card.benchId, input: { checkedAtMs: Date.now() } });
     // On to the next bench still to do, in walking order.
     const after = states.slice(states.findIndex((s) => s.card.benchId === card.benchId) + 1).find((s) => s.check.kind === "unchecked");
     if (after) document.getElementById(`bench-${after.card.benchId}`)?.scrollIntoView?.({ behavior: "smooth", block: "start" });
