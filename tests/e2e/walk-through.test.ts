@@ -264,6 +264,7 @@ describe("the morning walk-through in Chromium at tablet size", () => {
     expect(await observationsOf(batches.celeste!.id)).toHaveLength(0);
 
     // The connection returns: everything is sent by itself, each once.
+    const backOnlineMs = Date.now();
     await context.setOffline(false);
     await expect.poll(() => indicator.count(), { timeout: 20_000 }).toBe(0);
     const celeste = await observationsOf(batches.celeste!.id);
@@ -276,6 +277,8 @@ describe("the morning walk-through in Chromium at tablet size", () => {
     expect(celeste[0]!.clientId).not.toBe(violette[0]!.clientId);
     const round = roundResponseSchema.parse(await api(grower, `/api/rounds/${roundId}`)).round;
     expect(round.checkedCount).toBe(1);
+    // The check-off keeps the time it was tapped, not the time it reached the server.
+    expect(round.benches.find((b) => b.check !== null)!.check!.atMs).toBeLessThan(backOnlineMs);
     await first.section.getByText("Saved").waitFor({ timeout: 10_000 });
     await second.section.getByText("Saved").waitFor({ timeout: 10_000 });
     // A reload after sending leaves nothing waiting and nothing sent twice.
