@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { join } from "node:path";
-import type { Browser, Page } from "playwright-core";
+import type { Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { addDays, localDate } from "../../shared/domain/batch-calendar.js";
 import { batchResponseSchema, type BatchView } from "../../shared/schemas/batches.js";
@@ -119,6 +119,20 @@ async function signedInPage(viewport: { width: number; height: number }): Promis
   return context.newPage();
 }
 
+/**
+ * The alert's label on a chart: inside the plot (not cut off at either side or the top) and above
+ * the observation lane under the chart.
+ */
+async function expectAlertLabelInPlot(figure: Locator) {
+  const label = (await figure.locator("text.recharts-label").boundingBox())!;
+  const plot = (await figure.locator(".recharts-surface").boundingBox())!;
+  const lane = (await figure.getByRole("group", { name: "Observations on this chart" }).boundingBox())!;
+  expect(label.x).toBeGreaterThanOrEqual(plot.x);
+  expect(label.x + label.width).toBeLessThanOrEqual(plot.x + plot.width);
+  expect(label.y).toBeGreaterThanOrEqual(plot.y);
+  expect(label.y + label.height).toBeLessThanOrEqual(lane.y);
+}
+
 describe("marks on the history charts", () => {
   it("a bench's week: the alert and the observations are marked, by shape and words, and say what they are on hover or tap", async () => {
     const page = await signedInPage(TABLET);
@@ -197,7 +211,7 @@ describe("marks on the history charts", () => {
     await page.context().close();
   });
 
-  it("the zone's charts come from one request, with each observation on the bench its batch stood on", async () => {
+  it("the zone's charts come from one request, with each observation on the bench its batch stood on and each alert naming its bench", async () => {
     const page = await signedInPage(TABLET);
     const asked: string[] = [];
     page.on("request", (r) => {
@@ -211,7 +225,18 @@ describe("marks on the history charts", () => {
     const airFigure = page.getByRole("figure", { name: "Air temperature" });
     const marks = airFigure.locator("[data-observation-marker]");
     await expect.poll(() => marks.count(), { timeout: 10_000 }).toBe(3);
-    expect(await page.getByRole("list", { name: "Benches on the charts" }).innerText()).toContain("Observation (filled: something flagged)");
+    const key = await page.getByRole("list", { name: "Benches on the charts" }).innerText();
+    expect(key).toContain("Observation (filled: something flagged)");
+    // Bench 1's cold air: a dashed line on the air temperature chart only, its label naming the bench.
+    await expect.poll(() => airFigure.locator(".bw-alert-marker").count(), { timeout: 10_000 }).toBe(1);
+    expect(await airFigure.locator(".bw-alert-marker").innerHTML()).toContain("stroke-dasharray");
+    expect(await airFigure.locator("text.recharts-label").allTextContents()).toEqual([`⚠ ${benchOne.name} · Air too cold`]);
+    for (const other of ["air.humidity", "medium.temperature", "medium.moisture"]) {
+      expect(await page.locator(`figure[data-quantity="${other}"] .bw-alert-marker`).count()).toBe(0);
+    }
+    expect(key).toContain("Alert raised");
+    await airFigure.scrollIntoViewIfNeeded();
+    await expectAlertLabelInPlot(airFigure);
     await marks.nth(0).click();
     const early = airFigure.getByRole("group", { name: "Observation", exact: true });
     await early.waitFor();
@@ -228,6 +253,11 @@ describe("marks on the history charts", () => {
     await phone.getByRole("heading", { name: "Last 7 days" }).waitFor({ timeout: 15_000 });
     const phoneAir = phone.getByRole("figure", { name: "Air temperature" });
     await expect.poll(() => phoneAir.locator("[data-observation-marker]").count(), { timeout: 10_000 }).toBe(3);
+    await expect.poll(() => phoneAir.locator(".bw-alert-marker").count(), { timeout: 10_000 }).toBe(1);
+    expect(await phoneAir.locator("text.recharts-label").allTextContents()).toEqual([`⚠ ${benchOne.name} · Air too cold`]);
+    await phoneAir.scrollIntoViewIfNeeded();
+    await expectAlertLabelInPlot(phoneAir);
+    await shot(phone, "zone-markers-alert-phone.png");
     await phoneAir.locator("[data-observation-marker]").nth(2).click();
     await phoneAir.getByRole("group", { name: "2 observations" }).waitFor();
     await phoneAir.scrollIntoViewIfNeeded();

@@ -1,6 +1,4 @@
 import { useQuery, type QueryClient } from "@tanstack/react-query";
-import type { AlertView } from "../../../../shared/schemas/alerts.js";
-import type { WindowedQuantity } from "../../../../shared/schemas/quantities.js";
 import { data, useNavigate, useParams, useSearchParams, type LoaderFunction, type Params } from "react-router-dom";
 import { PanelBoundary } from "../../../components/errors/panel-boundary";
 import { RouteError } from "../../../components/errors/route-error";
@@ -11,7 +9,6 @@ import { useBenchObservations } from "../../../features/batches/api/get-bench-ob
 import { ExportCsvButton } from "../../../features/exports/components/export-csv-button";
 import { getBenchReadingsQueryOptions, useBenchReadings } from "../../../features/readings/api/get-bench-readings";
 import { BenchCharts } from "../../../features/readings/components/bench-charts";
-import type { ChartMarker } from "../../../features/readings/components/reading-chart";
 import { RangePicker } from "../../../features/readings/components/range-picker";
 import { rangeBounds, rangeFromSearch, rangeToSearch, type ChartRange } from "../../../features/readings/utils/chart-range";
 import { getZonesQueryOptions } from "../../../features/zones/api/get-zones";
@@ -19,24 +16,8 @@ import { BenchLatest } from "../../../features/zones/components/bench-latest";
 import { useNow } from "../../../hooks/use-now";
 import { useTemperatureUnit } from "../../../lib/temperature-unit";
 import { BenchOpenAlerts } from "../alerts/bench-open-alerts";
+import { alertMarkers } from "../history/alert-markers";
 import { observationMarkers } from "../history/observation-markers";
-
-/**
- * Where each alert of the range is marked: a window alert on its own quantity's chart, a
- * condensation risk on the air temperature and humidity charts, a silent sensor on all four.
- */
-function alertMarkers(alerts: readonly AlertView[]): Partial<Record<WindowedQuantity, ChartMarker[]>> {
-  const byQuantity: Partial<Record<WindowedQuantity, ChartMarker[]>> = {};
-  const add = (q: WindowedQuantity, m: ChartMarker) => (byQuantity[q] = [...(byQuantity[q] ?? []), m]);
-  for (const a of alerts) {
-    if (a.raisedAtMs === null) continue;
-    const marker = { timeMs: a.raisedAtMs, label: a.summary };
-    if (a.kind === "window" && a.quantity) add(a.quantity as WindowedQuantity, marker);
-    else if (a.kind === "condensation") ["air.temperature", "air.humidity"].forEach((q) => add(q as WindowedQuantity, marker));
-    else (["air.temperature", "air.humidity", "medium.temperature", "medium.moisture"] as const).forEach((q) => add(q, marker));
-  }
-  return byQuantity;
-}
 
 function parseBenchId(params: Params): number {
   const benchId = Number(params.benchId);
@@ -73,7 +54,7 @@ export default function BenchRoute() {
   const setRange = (next: ChartRange) => void navigate({ search: rangeToSearch(next) }, { replace: true });
   // Alerts raised in the range, marked on the charts; the charts do not wait for them.
   const alerts = useQuery(getAlertsQueryOptions({ status: "all", benchId, fromMs: readings.fromMs, toMs: readings.toMs, limit: 200 }));
-  const markers = alertMarkers(alerts.data?.alerts ?? []);
+  const markers = alertMarkers(alerts.data?.alerts ?? [], { withBench: false });
   // And what growers saw on the bench's batches then.
   const seen = useBenchObservations({ benchId, fromMs: readings.fromMs, toMs: readings.toMs });
   const observations = observationMarkers(seen.data?.observations ?? [], { withBench: false });

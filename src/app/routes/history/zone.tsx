@@ -1,8 +1,9 @@
-import type { QueryClient } from "@tanstack/react-query";
+import { useQuery, type QueryClient } from "@tanstack/react-query";
 import { data, useNavigate, useParams, useSearchParams, type LoaderFunction, type Params } from "react-router-dom";
 import { RouteError } from "../../../components/errors/route-error";
 import { LinkButton } from "../../../components/ui/link-button";
 import { paths } from "../../../config/paths";
+import { getAlertsQueryOptions } from "../../../features/alerts/api/get-alerts";
 import { useBenchObservations } from "../../../features/batches/api/get-bench-observations";
 import { ExportCsvButton } from "../../../features/exports/components/export-csv-button";
 import { getLayoutQueryOptions } from "../../../features/layout/api/get-layout";
@@ -12,6 +13,7 @@ import { ZoneCharts } from "../../../features/readings/components/zone-charts";
 import { rangeBounds, rangeFromSearch, rangeToSearch, type ChartRange } from "../../../features/readings/utils/chart-range";
 import { getZoneWindowsQueryOptions, useZoneWindows } from "../../../features/windows/api/get-zone-windows";
 import { useTemperatureUnit } from "../../../lib/temperature-unit";
+import { alertMarkers } from "./alert-markers";
 import { observationMarkers } from "./observation-markers";
 
 function parseZoneId(params: Params): number {
@@ -43,6 +45,9 @@ export default function ZoneHistoryRoute() {
   const seen = useBenchObservations({ zoneId, fromMs: readings.fromMs, toMs: readings.toMs });
   const charted = new Set(readings.benches.map((b) => b.bench.id));
   const observations = observationMarkers((seen.data?.observations ?? []).filter((o) => charted.has(o.benchId)), { withBench: true });
+  // And the alerts raised on them, each naming its bench; the charts do not wait for these either.
+  const alerts = useQuery(getAlertsQueryOptions({ status: "all", zoneId, fromMs: readings.fromMs, toMs: readings.toMs, limit: 500 }));
+  const markers = alertMarkers((alerts.data?.alerts ?? []).filter((a) => charted.has(a.benchId)), { withBench: true });
   const { unit } = useTemperatureUnit();
   const setRange = (next: ChartRange) => void navigate({ search: rangeToSearch(next) }, { replace: true });
   const zone = windows.zone;
@@ -66,6 +71,7 @@ export default function ZoneHistoryRoute() {
         unit={unit}
         range={range}
         observations={observations}
+        markers={markers}
         controls={
           <div className="flex flex-wrap items-start gap-3">
             <RangePicker key={rangeToSearch(range)} range={range} onChange={setRange} />

@@ -4,7 +4,7 @@ import type { WindowStatus } from "../../../../shared/schemas/windows.js";
 import { formatDateTime } from "../../../lib/format-time";
 import { timeAxis, type OutOfWindowStretch } from "../utils/chart-points";
 import type { ObservationMarker } from "./observation-lane";
-import { AXIS_TICK, STRETCH_FILL, STRETCH_OPACITY, observationLines } from "./reading-chart";
+import { AXIS_TICK, STRETCH_FILL, STRETCH_OPACITY, alertLines, observationLines, type ChartMarker } from "./reading-chart";
 
 /** One line of a chart with several (a zone's benches, a derived quantity): values in display units. */
 export type LineSeries = {
@@ -68,13 +68,15 @@ type MultiLineChartProps = {
   heightPx?: number;
   /** Observations to mark with a thin solid line (their ◇ sits in the lane under the chart). */
   observations?: readonly ObservationMarker[];
+  /** Alerts raised in the range, each a dashed line labelled ⚠ (as on the single-bench chart). */
+  markers?: readonly ChartMarker[];
 };
 
 /**
  * Several lines over one time axis: a zone's benches (each a mean line with ▼▲ where it leaves
  * its own window), or a derived quantity such as VPD.
  */
-export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, stretches = [], formatValue, heightPx = 240, observations = [] }: MultiLineChartProps) {
+export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, stretches = [], formatValue, heightPx = 240, observations = [], markers = [] }: MultiLineChartProps) {
   const data = mergeSeries(series, bucketMs);
   const time = timeAxis(fromMs, toMs);
   return (
@@ -116,6 +118,7 @@ export function MultiLineChart({ series, fromMs, toMs, bucketMs, axis, band, str
         />
       )}
       {observationLines(observations, fromMs, toMs)}
+      {alertLines(markers, fromMs, toMs)}
       {series.map((s) => (
         <Line
           key={s.key}

@@ -107,20 +107,7 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
         />
       )}
       {observationLines(observations, fromMs, toMs)}
-      {markers
-        .filter((m) => m.timeMs >= fromMs && m.timeMs <= toMs)
-        .map((m) => (
-          <ReferenceLine
-            key={`${m.timeMs}-${m.label}`}
-            x={m.timeMs}
-            stroke="var(--bw-ink)"
-            strokeWidth={2}
-            strokeDasharray="2 3"
-            className="bw-alert-marker"
-            // In the right half the label reads leftwards from the line, so it is not cut off at the chart's edge.
-            label={{ value: `⚠ ${m.label}`, position: m.timeMs - fromMs > (toMs - fromMs) / 2 ? "insideTopRight" : "insideTopLeft", fill: "var(--bw-ink)", fontSize: 13 }}
-          />
-        ))}
+      {alertLines(markers, fromMs, toMs)}
       <Area
         dataKey="range"
         stroke="none"
@@ -158,6 +145,33 @@ export function ReadingChart({ quantity, points, window, unit, fromMs, toMs, buc
       />
     </ComposedChart>
   );
+}
+
+/** Each alert raised in the range as a dashed line in ink, labelled "⚠ " and its words at the top of the plot. */
+export function alertLines(markers: readonly ChartMarker[], fromMs: number, toMs: number) {
+  return markers
+    .filter((m) => m.timeMs >= fromMs && m.timeMs <= toMs)
+    .map((m) => (
+      <ReferenceLine
+        key={`${m.timeMs}-${m.label}`}
+        x={m.timeMs}
+        stroke="var(--bw-ink)"
+        strokeWidth={2}
+        strokeDasharray="2 3"
+        className="bw-alert-marker"
+        // In the right half the label reads leftwards from the line, so it is not cut off at the chart's edge.
+        // A halo in the card's colour keeps it readable where an observation line or a series crosses it.
+        label={{
+          value: `⚠ ${m.label}`,
+          position: m.timeMs - fromMs > (toMs - fromMs) / 2 ? "insideTopRight" : "insideTopLeft",
+          fill: "var(--bw-ink)",
+          fontSize: 13,
+          stroke: "var(--bw-surface)",
+          strokeWidth: 3,
+          paintOrder: "stroke",
+        }}
+      />
+    ));
 }
 
 /**

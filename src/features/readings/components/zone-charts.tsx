@@ -11,9 +11,10 @@ import type { ZoneReadings } from "../api/get-zone-readings";
 import { derivedPoints, niceAxis, outOfWindowStretches, summarizeSeries, toChartPoints, type OutOfWindowStretch } from "../utils/chart-points";
 import { DEFAULT_RANGE, describeRange, describeRangeInSentence, type ChartRange } from "../utils/chart-range";
 import { DerivedToggles, type DerivedChoice } from "./derived-toggles";
-import { ObservationKeyItem } from "./bench-charts";
+import { AlertKeyItem, ObservationKeyItem } from "./bench-charts";
 import { MultiLineChart, lineStyle, type LineSeries } from "./multi-line-chart";
 import { ObservationLane, type ObservationMarker } from "./observation-lane";
+import type { ChartMarker } from "./reading-chart";
 
 type ZoneChartsProps = {
   readings: ZoneReadings;
@@ -24,6 +25,8 @@ type ZoneChartsProps = {
   controls?: ReactNode;
   /** What growers saw on the zone's benches in the range (each marker names its bench), marked on every quantity's chart. */
   observations?: readonly ObservationMarker[];
+  /** Alerts raised on the zone's benches in the range, per quantity (each label names its bench), composed by the route. */
+  markers?: Partial<Record<WindowedQuantity, readonly ChartMarker[]>>;
 };
 
 const seriesOf = (bench: BenchReadingsResponse, q: WindowedQuantity) => bench.series.find((s) => s.quantity === q)?.points ?? [];
@@ -33,7 +36,7 @@ const seriesOf = (bench: BenchReadingsResponse, q: WindowedQuantity) => bench.se
  * dash), the zone's window as the band, and the stretches each bench spent out of its own window
  * shaded and marked. Dew point and VPD per bench on request.
  */
-export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE, controls, observations = [] }: ZoneChartsProps) {
+export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE, controls, observations = [], markers }: ZoneChartsProps) {
   const [derived, setDerived] = useState<DerivedChoice>({ dewPoint: false, vpd: false });
   const styles = new Map(readings.benches.map((b, i) => [b.bench.id, lineStyle(i)]));
 
@@ -47,7 +50,12 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
       </div>
       <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <DerivedToggles value={derived} onChange={setDerived} />
-        <BenchKey readings={readings} styles={styles} hasObservations={observations.some((o) => o.timeMs >= readings.fromMs && o.timeMs <= readings.toMs)} />
+        <BenchKey
+          readings={readings}
+          styles={styles}
+          hasAlerts={Object.values(markers ?? {}).some((list) => list.some((m) => m.timeMs >= readings.fromMs && m.timeMs <= readings.toMs))}
+          hasObservations={observations.some((o) => o.timeMs >= readings.fromMs && o.timeMs <= readings.toMs)}
+        />
       </div>
       {readings.benches.length === 0 ? (
         <p className="text-lg text-muted">This zone has no benches in use.</p>
@@ -63,6 +71,7 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
                 range={range}
                 styles={styles}
                 observations={observations}
+                markers={markers?.[quantity]}
               />
             </PanelBoundary>
           ))}
@@ -89,7 +98,7 @@ export function ZoneCharts({ readings, zoneWindows, unit, range = DEFAULT_RANGE,
 
 type Styles = ReadonlyMap<number, { color: string; dash: string }>;
 
-function BenchKey({ readings, styles, hasObservations }: { readings: ZoneReadings; styles: Styles; hasObservations: boolean }) {
+function BenchKey({ readings, styles, hasAlerts, hasObservations }: { readings: ZoneReadings; styles: Styles; hasAlerts: boolean; hasObservations: boolean }) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-base" aria-label="Benches on the charts">
       {readings.benches.map((b) => {
@@ -112,6 +121,7 @@ function BenchKey({ readings, styles, hasObservations }: { readings: ZoneReading
         </span>
         Out of its window
       </li>
+      {hasAlerts && <AlertKeyItem />}
       {hasObservations && <ObservationKeyItem />}
     </ul>
   );
@@ -125,6 +135,7 @@ function ZoneQuantityPanel({
   range,
   styles,
   observations,
+  markers,
 }: {
   quantity: WindowedQuantity;
   readings: ZoneReadings;
@@ -133,6 +144,7 @@ function ZoneQuantityPanel({
   range: ChartRange;
   styles: Styles;
   observations: readonly ObservationMarker[];
+  markers?: readonly ChartMarker[];
 }) {
   const headingId = `zone-chart-${quantity.replace(".", "-")}`;
   const values: number[] = [];
@@ -180,6 +192,7 @@ function ZoneQuantityPanel({
           stretches={stretches}
           formatValue={(v) => `${v.toFixed(displayDecimals(quantity))} ${unitLabel}`}
           observations={observations}
+          markers={markers}
         />
       )}
       {hasData && <ObservationLane markers={observations} fromMs={readings.fromMs} toMs={readings.toMs} />}
