@@ -40,19 +40,31 @@ function describedBy(id: string, hint: unknown, error: unknown): string | undefi
   return ids.length > 0 ? ids.join(" ") : undefined;
 }
 
-type TextFieldProps = Omit<ComponentProps<"input">, "id"> & { label: string; hint?: ReactNode; error?: string; className?: string };
+type TextFieldProps = Omit<ComponentProps<"input">, "id"> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  className?: string;
+  /** A unit beside a short box ("[20] minutes"); read with the field by screen readers. */
+  unit?: string;
+};
 
-export function TextField({ label, hint, error, className, ...props }: TextFieldProps) {
+export function TextField({ label, hint, error, className, unit, ...props }: TextFieldProps) {
   const id = useId();
+  const described = [unit ? `${id}-unit` : null, describedBy(id, hint, error)].filter(Boolean).join(" ") || undefined;
+  const input = <input {...props} id={id} aria-invalid={error ? true : undefined} aria-describedby={described} className={unit ? CONTROL.replace("w-full", "w-28") : CONTROL} />;
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
-      <input
-        {...props}
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, hint, error)}
-        className={CONTROL}
-      />
+      {unit ? (
+        <div className="flex items-center gap-2">
+          {input}
+          <span id={`${id}-unit`} className="text-lg">
+            {unit}
+          </span>
+        </div>
+      ) : (
+        input
+      )}
     </FieldFrame>
   );
 }

@@ -1,7 +1,8 @@
-import { useId, useRef, useState, type FormEvent } from "react";
+import { useRef, useState, type FormEvent } from "react";
 import { describeDurationS } from "../../../../shared/domain/duration.js";
 import { ALERT_TIMING_LIMITS_S, siteAlertTimingInputSchema, type SiteAlertTiming, type SiteAlertTimingInput } from "../../../../shared/schemas/alerts.js";
 import { Button } from "../../../components/ui/button";
+import { TextField } from "../../../components/ui/form";
 import { Notice } from "../../../components/ui/notice";
 import { useToast } from "../../../components/ui/toast";
 import { ALLOWED, useAuthorization } from "../../../lib/authorization";
@@ -143,71 +144,31 @@ function AlertTimingForm({ site }: { site: SiteAlertTiming }) {
     >
       <h3 className="text-xl font-bold">{site.siteName}</h3>
       {errors.form && <Notice tone="error">{errors.form}</Notice>}
-      <MinutesField
+      <TextField
         label="Tell the managers after"
         name="escalateAfterS"
         value={values.escalateAfterS}
         hint={hintFor("escalateAfterS", site.defaultEscalateAfterS)}
         error={errors.fields.escalateAfterS}
-        onChange={(text) => change("escalateAfterS", text)}
+        onChange={(e) => change("escalateAfterS", e.target.value)}
+        inputMode="numeric"
+        autoComplete="off"
+        unit="minutes"
       />
-      <MinutesField
+      <TextField
         label="Remind the person on duty every"
         name="renotifyEveryS"
         value={values.renotifyEveryS}
         hint={hintFor("renotifyEveryS", site.defaultRenotifyEveryS)}
         error={errors.fields.renotifyEveryS}
-        onChange={(text) => change("renotifyEveryS", text)}
+        onChange={(e) => change("renotifyEveryS", e.target.value)}
+        inputMode="numeric"
+        autoComplete="off"
+        unit="minutes"
       />
       <Button type="submit" variant="primary" className="self-start" isBusy={update.isPending}>
         Save times
       </Button>
     </form>
-  );
-}
-
-type MinutesFieldProps = {
-  label: string;
-  name: Field;
-  value: string;
-  hint: string;
-  error?: string;
-  onChange: (text: string) => void;
-};
-
-/** "Tell the managers after [20] minutes": a short number box with its unit beside it. */
-function MinutesField({ label, name, value, hint, error, onChange }: MinutesFieldProps) {
-  const id = useId();
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-lg font-semibold">
-        {label}
-      </label>
-      <div className="flex items-center gap-2">
-        <input
-          id={id}
-          name={name}
-          inputMode="numeric"
-          autoComplete="off"
-          value={value}
-          onChange={(e) => onChange(e.target.value)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={`${id}-unit ${id}-hint${error ? ` ${id}-error` : ""}`}
-          className="min-h-touch w-28 rounded-lg border-2 border-line bg-surface px-3 py-2 text-lg text-ink focus:border-accent aria-[invalid=true]:border-high"
-        />
-        <span id={`${id}-unit`} className="text-lg">
-          minutes
-        </span>
-      </div>
-      <p id={`${id}-hint`} className="text-base text-muted">
-        {hint}
-      </p>
-      {error && (
-        <p id={`${id}-error`} className="flex items-start gap-1 text-base font-semibold text-high">
-          <span aria-hidden="true">!</span>
-          {error}
-        </p>
-      )}
-    </div>
   );
 }
