@@ -14,11 +14,12 @@ import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
 import { SiteEntity } from "../../db/entities/site.entity.js";
 import { ZoneEntity, type Zone } from "../../db/entities/zone.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
+import { ROLLUP_RESOLUTIONS_MS } from "../readings/readings.repository.js";
 
 const DAY_MS = 24 * 3600 * 1000;
 const MINUTE_MS = 60_000;
-/** Rollup resolutions kept at ingest (readings.repository.ts), coarsest first. */
-const ROLLUP_RESOLUTIONS_MS = [3_600_000, 900_000, MINUTE_MS];
+/** The rollup resolutions kept at ingest, coarsest first: an export reads the coarsest that divides its interval. */
+const COARSEST_FIRST_MS = [...ROLLUP_RESOLUTIONS_MS].reverse();
 /** Raw rows are read six hours at a time, so memory stays small however long the range. */
 const RAW_CHUNK_MS = 6 * 3600 * 1000;
 /** Rolled-up rows are read this many buckets at a time. */
@@ -151,7 +152,7 @@ export class ExportsService {
     const bucketMs = raw ? 0 : EXPORT_INTERVAL_MS[query.interval as keyof typeof EXPORT_INTERVAL_MS];
     const fromMs = raw ? fromMsAsked : Math.floor(fromMsAsked / bucketMs) * bucketMs;
     const toMs = raw ? toMsAsked : Math.ceil(toMsAsked / bucketMs) * bucketMs;
-    const resolutionMs = ROLLUP_RESOLUTIONS_MS.find((r) => bucketMs % r === 0) ?? MINUTE_MS;
+    const resolutionMs = COARSEST_FIRST_MS.find((r) => bucketMs % r === 0) ?? MINUTE_MS;
 
     const unit = (q: Quantity): string => {
       if (isTemperature(q)) return query.temperatureUnit === "F" ? "°F" : "°C";
