@@ -20,13 +20,13 @@ export interface IngestDeps {
 export function createIngest({ sensors, writer, metrics, logger, now = Date.now }: IngestDeps) {
   return async function ingestReadings(sensorId: string, payload: Buffer): Promise<void> {
     metrics.mqttMessages.inc();
-    const benchId = await sensors.benchOf(sensorId);
-    if (benchId === undefined) {
+    const profile = await sensors.ingestProfile(sensorId);
+    if (profile === undefined) {
       metrics.readingsRejected.inc({ reason: "unknown-sensor" });
       logger.warn({ sensorId }, "reading from an unknown sensor refused");
       return;
     }
-    const calibration = await sensors.calibrationOf(sensorId);
+    const { benchId, calibration } = profile;
     const result = readingsFromPayload(payload.toString("utf8"), { nowMs: now(), calibration });
     if (!result.ok) {
       metrics.readingsRejected.inc({ reason: result.reason });

@@ -231,20 +231,17 @@ export class SensorsService {
     return given.length === stored.length && timingSafeEqual(given, stored);
   }
 
-  /** The sensor's calibration for the ingest path (cached with its credentials). */
-  async calibrationOf(id: string): Promise<SensorCalibration> {
+  /**
+   * What ingest needs of a sensor, from the cache: the bench it is on now (null when unassigned)
+   * and its calibration; undefined for an unknown or disabled sensor.
+   */
+  async ingestProfile(id: string): Promise<{ benchId: number | null; calibration: SensorCalibration } | undefined> {
     const sensor = await this.find(id);
-    if (!sensor) return {};
+    if (!sensor || sensor.disabledAtMs !== null) return undefined;
     // Parsed once per cached row (a change replaces the row), not once per message.
-    let parsed = this.parsedCalibrations.get(sensor);
-    if (!parsed) this.parsedCalibrations.set(sensor, (parsed = parseCalibration(sensor.calibration)));
-    return parsed;
-  }
-
-  /** The bench a sensor is on now (null when unassigned); undefined for an unknown or disabled sensor. */
-  async benchOf(id: string): Promise<number | null | undefined> {
-    const sensor = await this.find(id);
-    return sensor && sensor.disabledAtMs === null ? sensor.benchId : undefined;
+    let calibration = this.parsedCalibrations.get(sensor);
+    if (!calibration) this.parsedCalibrations.set(sensor, (calibration = parseCalibration(sensor.calibration)));
+    return { benchId: sensor.benchId, calibration };
   }
 
   // ── administration ───────────────────────────────────────────────────────
