@@ -10,7 +10,7 @@ import type { DataSource } from "typeorm";
 import { classifyValue } from "../shared/domain/window-status.js";
 import { createApp } from "./app.js";
 import { ConfigError, type Env } from "./config/env.js";
-import { createDataSource, rawDatabase } from "./db/data-source.js";
+import { createDataSource, databaseTarget, rawDatabase } from "./db/data-source.js";
 import { AppMetaEntity } from "./db/entities/app-meta.entity.js";
 import { UserEntity } from "./db/entities/user.entity.js";
 import {
@@ -135,7 +135,7 @@ function startSimulator(env: Env, brokerUrl: string, credentialsPath: string, lo
 /** Start everything in order: database → broker → HTTP → simulator. stop() undoes it in reverse. */
 export async function start(env: Env, options: StartOptions = {}): Promise<RunningServer> {
   const logger = options.logger ?? createLogger(env.LOG_LEVEL);
-  const dataSource = createDataSource(env.DATABASE_PATH);
+  const dataSource = createDataSource(databaseTarget(env));
   await dataSource.initialize();
   await dataSource.runMigrations({ transaction: "each" });
 

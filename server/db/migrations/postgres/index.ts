@@ -1,0 +1,5 @@
+import type { MigrationInterface } from "typeorm";
+import { PostgresBaseline1796329492887 } from "./1796329492887-postgres-baseline.js";
+
+/** PostgreSQL's migrations, oldest first: generated from the same entities as the SQLite set (DEVELOPERS.md). */
+export const POSTGRES_MIGRATIONS: (new () => MigrationInterface)[] = [PostgresBaseline1796329492887];
