@@ -93,7 +93,7 @@ export async function startPostgres(): Promise<Postgres> {
       break;
     } catch (err) {
       await client.end().catch(() => undefined);
-      if (Date.now() > deadline) throw new Error(`postgres did not accept connections on ${port} within 30 s: ${String(err)}\n${stderr}`);
+      if (Date.now() > deadline) throw new Error(`postgres did not accept connections on ${port} within 30 s: ${String(err)}\n${stderr}`, { cause: err });
       await new Promise((r) => setTimeout(r, 100));
     }
   }
