@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
+import { hostname } from "node:os";
 import { existsSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
@@ -10,7 +11,9 @@ import type { DataSource } from "typeorm";
 import { classifyValue } from "../shared/domain/window-status.js";
 import { createApp } from "./app.js";
 import { ConfigError, type Env } from "./config/env.js";
-import { createDataSource, databaseTarget, rawDatabase } from "./db/data-source.js";
+import { LocalEventBus, PostgresEventBus, type EventBus } from "./coordination/event-bus.js";
+import { Lease } from "./coordination/lease.js";
+import { createDataSource, databaseTarget, isPostgres, postgresPool } from "./db/data-source.js";
 import { AppMetaEntity } from "./db/entities/app-meta.entity.js";
 import { UserEntity } from "./db/entities/user.entity.js";
 import {
@@ -33,7 +36,7 @@ import { startSmtpSink, type SmtpSink } from "./mail/smtp-sink.js";
 import { AlertsService } from "./modules/alerts/alerts.service.js";
 import { RotaService } from "./modules/rota/rota.service.js";
 import { ReadingWriter } from "./modules/readings/reading-writer.js";
-import { ReadingsRepository } from "./modules/readings/readings.repository.js";
+import { createReadingStore } from "./modules/readings/reading-store.js";
 import { ReadingsService } from "./modules/readings/readings.service.js";
 import { ReadingRetention } from "./modules/retention/retention.service.js";
 import { SensorsService } from "./modules/sensors/sensors.service.js";
@@ -45,7 +48,7 @@ import { LayoutService } from "./modules/layout/layout.service.js";
 import { AuditService } from "./modules/audit/audit.service.js";
 import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
-import { createPropagation } from "./modules/batches/propagation.js";
+import { createPropagation, photoDirFor } from "./modules/batches/propagation.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
 import { connectExternalBroker, type ExternalBroker } from "./mqtt/external-broker.js";
 import { createIngest } from "./mqtt/ingest.js";
@@ -78,6 +81,8 @@ export interface RunningServer {
   logger: Logger;
   /** Raw-reading retention; tests run a pass with run(). */
   retention: ReadingRetention;
+  /** This instance's name among several (INSTANCE_ID), and whether it holds the alert engine's lease now. */
+  instance: { id: string; runsAlerts(): boolean };
   stop(): Promise<void>;
 }
 
@@ -98,6 +103,22 @@ async function demoJwtSecret(dataSource: DataSource): Promise<string> {
   const value = randomBytes(48).toString("base64url");
   await meta.save({ key: "demo-jwt-secret", value });
   return value;
+}
+
+/**
+ * Several instances may start at once on one new PostgreSQL database: migrations and the demo
+ * seed run under an advisory lock, one instance after the other. SQLite has one instance.
+ */
+async function oneInstanceAtATime<T>(dataSource: DataSource, work: () => Promise<T>): Promise<T> {
+  if (!isPostgres(dataSource)) return work();
+  const client = await postgresPool(dataSource).connect();
+  try {
+    await client.query("SELECT pg_advisory_lock(hashtext('benchwarden-startup'))");
+    return await work();
+  } finally {
+    await client.query("SELECT pg_advisory_unlock(hashtext('benchwarden-startup'))").catch(() => undefined);
+    client.release();
+  }
 }
 
 async function resolveDemoMode(env: Env, dataSource: DataSource): Promise<boolean> {
@@ -137,25 +158,28 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   const logger = options.logger ?? createLogger(env.LOG_LEVEL);
   const dataSource = createDataSource(databaseTarget(env));
   await dataSource.initialize();
-  await dataSource.runMigrations({ transaction: "each" });
-
-  const demo = await resolveDemoMode(env, dataSource);
+  const instanceId = env.INSTANCE_ID ?? `${hostname()}-${process.pid}-${randomBytes(3).toString("hex")}`;
+  let demo = false;
+  let demoCredentialsPath: string | null = null;
+  let seedUsers = false;
+  await oneInstanceAtATime(dataSource, async () => {
+    await dataSource.runMigrations({ transaction: "each" });
+    demo = await resolveDemoMode(env, dataSource);
+    if (demo) {
+      demoCredentialsPath = join(dirname(resolve(env.DATABASE_PATH)), "demo-sensors.json");
+      if (await isEmptyDatabase(dataSource)) {
+        writeDemoCredentials(demoCredentialsPath, await seedDemoNursery(dataSource));
+        seedUsers = true;
+        logger.info({ demoCredentialsPath }, "seeded the demo nursery");
+      } else if (!existsSync(demoCredentialsPath)) {
+        writeDemoCredentials(demoCredentialsPath, await rotateDemoSecrets(dataSource));
+        logger.info({ demoCredentialsPath }, "demo sensor secrets renewed");
+      }
+    }
+  });
   if (!demo && !env.JWT_SECRET) {
     await dataSource.destroy();
     throw new ConfigError(["JWT_SECRET: required outside demo mode (at least 32 characters)"]);
-  }
-  let demoCredentialsPath: string | null = null;
-  let seedUsers = false;
-  if (demo) {
-    demoCredentialsPath = join(dirname(resolve(env.DATABASE_PATH)), "demo-sensors.json");
-    if (await isEmptyDatabase(dataSource)) {
-      writeDemoCredentials(demoCredentialsPath, await seedDemoNursery(dataSource));
-      seedUsers = true;
-      logger.info({ demoCredentialsPath }, "seeded the demo nursery");
-    } else if (!existsSync(demoCredentialsPath)) {
-      writeDemoCredentials(demoCredentialsPath, await rotateDemoSecrets(dataSource));
-      logger.info({ demoCredentialsPath }, "demo sensor secrets renewed");
-    }
   }
 
   const jwtSecret = env.JWT_SECRET ?? (await demoJwtSecret(dataSource));
@@ -180,22 +204,33 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     mailer,
     logger,
   });
-  if (seedUsers || (demo && (await dataSource.getRepository(UserEntity).count()) === 0)) {
-    const created = [];
-    for (const u of DEMO_USERS) created.push(await users.createWithPassword({ ...u, password: env.DEMO_PASSWORD }));
-    // The grower covers the nights in every house; the manager takes what nobody covers.
-    const grower = created.find((u) => u.role === "grower")!;
-    const manager = created.find((u) => u.role === "manager")!;
-    await dataSource.getRepository(DutyShiftEntity).save([
-      { zoneId: null, userId: grower.id, weekdays: 0b1111111, startMinute: 18 * 60, endMinute: 7 * 60, isFallback: false },
-      { zoneId: null, userId: manager.id, weekdays: 0b1111111, startMinute: 0, endMinute: 0, isFallback: true },
-    ]);
-    logger.info("seeded the demo users and duty rota");
+  await oneInstanceAtATime(dataSource, async () => {
+    if (seedUsers || (demo && (await dataSource.getRepository(UserEntity).count()) === 0)) {
+      const created = [];
+      for (const u of DEMO_USERS) created.push(await users.createWithPassword({ ...u, password: env.DEMO_PASSWORD }));
+      // The grower covers the nights in every house; the manager takes what nobody covers.
+      const grower = created.find((u) => u.role === "grower")!;
+      const manager = created.find((u) => u.role === "manager")!;
+      await dataSource.getRepository(DutyShiftEntity).save([
+        { zoneId: null, userId: grower.id, weekdays: 0b1111111, startMinute: 18 * 60, endMinute: 7 * 60, isFallback: false },
+        { zoneId: null, userId: manager.id, weekdays: 0b1111111, startMinute: 0, endMinute: 0, isFallback: true },
+      ]);
+      logger.info("seeded the demo users and duty rota");
+    }
+  });
+  // Readings, alert changes and cache changes reach every instance (itself included) through the bus.
+  let bus: EventBus;
+  if (isPostgres(dataSource)) {
+    const postgresBus = new PostgresEventBus(postgresPool(dataSource), env.DATABASE_URL!, logger);
+    await postgresBus.start();
+    bus = postgresBus;
+  } else {
+    bus = new LocalEventBus(logger);
   }
   const hub = new LiveHub();
   const windows = new WindowsService(dataSource);
   await windows.ready();
-  const repository = new ReadingsRepository(rawDatabase(dataSource));
+  const repository = createReadingStore(dataSource);
   const sensors = new SensorsService(dataSource, repository);
   await sensors.reload();
   const now = () => Date.now();
@@ -209,11 +244,9 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     logger,
     { silentAfterMs: env.SENSOR_SILENT_AFTER, escalateAfterMs: env.ALERT_ESCALATE_AFTER, renotifyEveryMs: env.ALERT_RENOTIFY_EVERY },
     now,
-    (ids) => {
-      void alertsService?.views(ids).then((alerts) => hub.publishAlerts(alerts), (err: unknown) => logger.error({ err }, "alert stream update failed"));
-    },
+    (alertIds) => bus.publish({ type: "alerts", alertIds }),
   );
-  await engine.start();
+  engine.onTrackerStored = (alertId) => bus.publish({ type: "tracker", alertId });
   alertsService = new AlertsService(dataSource, engine, layout, windows, jwtSecret);
   const notifier = new Notifier(
     dataSource,
@@ -226,31 +259,66 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   );
   const writer = new ReadingWriter(
     repository,
-    (stored) => {
-      hub.publishReadings(
-        stored.flatMap((r) =>
-          r.benchId === null
-            ? []
-            : [{ ...r, benchId: r.benchId, status: classifyValue(r.value, windows.windowFor(r.benchId, r.quantity)) }],
-        ),
-      );
-      void engine.onReadings(stored);
-    },
+    (stored) => bus.publish({ type: "readings", rows: stored }),
     metrics,
     logger,
   );
+  bus.subscribe((event) => {
+    switch (event.type) {
+      case "readings":
+        hub.publishReadings(
+          event.rows.flatMap((r) =>
+            r.benchId === null ? [] : [{ ...r, benchId: r.benchId, status: classifyValue(r.value, windows.windowFor(r.benchId, r.quantity)) }],
+          ),
+        );
+        void engine.onReadings(event.rows);
+        break;
+      case "alerts":
+        void alertsService?.views(event.alertIds).then((alerts) => hub.publishAlerts(alerts), (err: unknown) => logger.error({ err }, "alert stream update failed"));
+        break;
+      case "tracker":
+        void engine.reloadTracker(event.alertId);
+        break;
+      case "sensor-offline":
+        void engine.onSensorOffline(event.sensorId);
+        break;
+      case "sensor":
+        sensors.forget(event.sensorId);
+        break;
+      case "windows":
+        void windows.reload();
+        break;
+      case "outbox":
+        outbox.kick();
+        break;
+      case "resync":
+        void sensors.reload();
+        void windows.reload();
+        break;
+    }
+  });
+  if (bus instanceof PostgresEventBus) {
+    // Local changes already updated this instance's caches; the others re-read theirs.
+    sensors.onChanged = (sensorId) => bus.publish({ type: "sensor", sensorId });
+    windows.onChange(() => bus.publish({ type: "windows" }));
+    outbox.onEnqueued = () => {
+      if (!engine.isRunning) bus.publish({ type: "outbox" });
+    };
+  }
   // One alert round: evaluate (delays, silence, escalation, reminders) → group notices → send mail.
   let passRunning: Promise<void> | null = null;
-  const pass = () =>
-    (passRunning ??= (async () => {
-      try {
-        await engine.tick();
-        await notifier.flush();
-        await outbox.sendDue();
-      } finally {
-        passRunning = null;
-      }
-    })());
+  const pass = (): Promise<void> =>
+    !engine.isRunning
+      ? Promise.resolve()
+      : (passRunning ??= (async () => {
+          try {
+            await engine.tick();
+            await notifier.flush();
+            await outbox.sendDue();
+          } finally {
+            passRunning = null;
+          }
+        })());
   // Notices are due when their grouping interval ends: run the notifier then, not at the next tick.
   let noticeTimer: NodeJS.Timeout | null = null;
   engine.onNoticesWritten = () => {
@@ -265,13 +333,29 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   };
   const alertTimer = setInterval(() => void pass().catch((err: unknown) => logger.error({ err }, "alert round failed")), env.ALERT_TICK);
   alertTimer.unref();
-  outbox.start();
   const retention = new ReadingRetention(
-    rawDatabase(dataSource),
-    { retentionDays: env.READING_RETENTION_DAYS, chunkRows: env.READING_RETENTION_CHUNK_ROWS, batchMarginMs: env.SENSOR_SILENT_AFTER },
+    dataSource,
+    { retentionDays: env.READING_RETENTION_DAYS, isOurTurn: () => engine.isRunning, chunkRows: env.READING_RETENTION_CHUNK_ROWS, batchMarginMs: env.SENSOR_SILENT_AFTER },
     metrics,
     logger,
   );
+  // Exactly one instance runs the alert engine and sends the mail; another takes over when it dies.
+  const lease = new Lease(
+    dataSource,
+    { name: "alerts", holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: Math.max(500, Math.floor(env.LEADER_LEASE_TTL / 5)) },
+    logger,
+    async () => {
+      await engine.start();
+      outbox.start();
+    },
+    async () => {
+      if (noticeTimer) clearTimeout(noticeTimer);
+      noticeTimer = null;
+      await engine.stop();
+      await outbox.pause();
+    },
+  );
+  metrics.addGauge("benchwarden_alert_engine_running", "1 when this instance holds the lease and runs the alert engine and the mail outbox", () => (engine.isRunning ? 1 : 0));
   metrics.addGauge("benchwarden_stream_clients", "Open live-stream connections", () => hub.clientCount);
   metrics.addGauge(
     "benchwarden_alerts",
@@ -309,11 +393,13 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         await new Promise<void>((r) => http!.close(() => r()));
       }
       if (broker) await broker.close();
-      writer.close();
+      await writer.close();
       await passRunning?.catch(() => undefined);
+      await lease.stop();
       await retention.stop();
       await engine.idle();
       await outbox.stop();
+      await bus.close();
       transport.close();
       if (sink) await sink.close();
       if (dataSource.isInitialized) await dataSource.destroy();
@@ -321,6 +407,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     })());
 
   try {
+    await lease.start();
     const ingest = createIngest({ sensors, writer, metrics, logger });
     let brokerUrl: string;
     let brokerPort: number;
@@ -329,7 +416,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       // exported password file is reloaded (docs/mosquitto.md); ingest refuses a disabled one now.
       const external = await connectExternalBroker(
         { url: env.MQTT_URL, username: env.MQTT_USERNAME, password: env.MQTT_PASSWORD, clientId: env.MQTT_CLIENT_ID, shareGroup: env.MQTT_SHARE_GROUP, sessionExpiryMs: env.MQTT_SESSION_EXPIRY },
-        { ingest, metrics, logger, onSensorOffline: (sensorId) => engine.onSensorOffline(sensorId), flushWrites: () => writer.flush() },
+        { ingest, metrics, logger, onSensorOffline: async (sensorId) => bus.publish({ type: "sensor-offline", sensorId }), flushWrites: () => writer.flush() },
       );
       broker = external;
       brokerUrl = external.url;
@@ -340,7 +427,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         metrics,
         ingest,
         logger,
-        onSensorOffline: (sensorId) => void engine.onSensorOffline(sensorId),
+        onSensorOffline: (sensorId) => bus.publish({ type: "sensor-offline", sensorId }),
         limits: { maxPacketBytes: env.MQTT_MAX_PACKET_BYTES, bytesPerSecond: env.MQTT_BYTES_PER_SECOND, burstBytes: 4 * env.MQTT_BYTES_PER_SECOND },
       });
       broker = embedded;
@@ -356,7 +443,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       windowSettings,
       audit: new AuditService(dataSource),
       exports: new ExportsService(dataSource, Date.now, { refreshRollups: () => repository.refreshStaleRollups(), retentionDays: env.READING_RETENTION_DAYS }),
-      ...createPropagation({ dataSource, windows, alerts: alertsService, mailer: outbox, logger, databasePath: env.DATABASE_PATH, silentAfterMs: env.SENSOR_SILENT_AFTER, appUrl: () => resolvedAppUrl }),
+      ...createPropagation({ dataSource, windows, alerts: alertsService, mailer: outbox, logger, photosDir: env.PHOTOS_DIR ?? photoDirFor(env.DATABASE_PATH), silentAfterMs: env.SENSOR_SILENT_AFTER, appUrl: () => resolvedAppUrl }),
       zones: new ZonesService(dataSource, repository, windows, alertsService),
       alerts: alertsService,
       rota: new RotaService(dataSource, { escalateAfterMs: env.ALERT_ESCALATE_AFTER, renotifyEveryMs: env.ALERT_RENOTIFY_EVERY }),
@@ -387,7 +474,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       simulator = startSimulator(env, brokerUrl, demoCredentialsPath, logger);
     }
 
-    return { httpPort, mqttPort: brokerPort, mqttUrl: brokerUrl, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, retention, stop };
+    return { httpPort, mqttPort: brokerPort, mqttUrl: brokerUrl, appUrl, demo, demoCredentialsPath, smtpSinkPort: sink?.port ?? null, smtpSink: sink, users, app, mqtt: broker, alerts: { engine, notifier, outbox, service: alertsService, pass }, dataSource, metrics, logger, retention, instance: { id: instanceId, runsAlerts: () => engine.isRunning }, stop };
   } catch (err) {
     await stop();
     throw err;

@@ -60,6 +60,10 @@ const silenceKey = (sensorId: string) => `silent:${sensorId}`;
  * resumes exactly where it was and sends nothing twice); and writes notices that the notifier
  * groups into e-mail. All work runs one step at a time through a queue, so evaluation order is
  * the order readings were committed.
+ *
+ * With several server instances only the one holding the lease runs it (start() when it takes the
+ * lease, stop() when it loses it); on the others evaluation does nothing, and acknowledge() works
+ * on the stored tracker, which the running engine then re-reads (reloadTracker).
  */
 export class AlertEngine {
   private readonly trackers = new Map<string, Tracker>();
@@ -70,8 +74,11 @@ export class AlertEngine {
   private noticesWritten = false;
   private waitingRows: ReadingRow[] | null = null;
   private waitingDone: Promise<void> | null = null;
+  private running = false;
   /** Told after a commit that wrote notices, so the notifier can run when their group is due. */
   onNoticesWritten: () => void = () => {};
+  /** Told when acknowledge() changed a stored tracker the engine does not run here (another instance must re-read it). */
+  onTrackerStored: (alertId: number) => void = () => {};
 
   constructor(
     private readonly dataSource: DataSource,
@@ -85,8 +92,32 @@ export class AlertEngine {
     private readonly onAlertsChanged: (alertIds: number[]) => void,
   ) {}
 
-  /** Load the saved trackers and each sensor's last reading time. */
-  async start(): Promise<void> {
+  /** Whether this instance runs the engine (holds the lease). */
+  get isRunning(): boolean {
+    return this.running;
+  }
+
+  /** Start evaluating: load the saved trackers and each sensor's last reading time afresh. */
+  start(): Promise<void> {
+    return this.enqueue(async () => {
+      this.trackers.clear();
+      this.lastSeenMs.clear();
+      this.air.clear();
+      await this.load();
+      this.running = true;
+    });
+  }
+
+  /** Stop evaluating (another instance has the lease) once the step in progress is done. */
+  stop(): Promise<void> {
+    return this.enqueue(async () => {
+      this.running = false;
+      this.trackers.clear();
+      this.waitingRows = null;
+    });
+  }
+
+  private async load(): Promise<void> {
     this.startedAtMs = this.now();
     await this.layout.reload();
     for (const row of await this.dataSource.getRepository(AlertTrackerEntity).find()) {
@@ -111,6 +142,7 @@ export class AlertEngine {
 
   /** Readings just committed (called after every write batch). */
   onReadings(rows: readonly ReadingRow[]): Promise<void> {
+    if (!this.running) return Promise.resolve();
     // Batches committed while an evaluation waits join it: one pending evaluation at most, so a
     // fast fleet cannot pile up a queue of jobs (and their rows) faster than they are evaluated.
     if (this.waitingRows) {
@@ -121,19 +153,33 @@ export class AlertEngine {
     this.waitingDone = this.enqueue(async () => {
       const batch = this.waitingRows ?? [];
       this.waitingRows = null;
-      await this.evaluateReadings(batch);
+      if (this.running) await this.evaluateReadings(batch);
     });
     return this.waitingDone;
   }
 
   /** The periodic pass: hold-off delays running out, changed windows, silence, escalation, reminders. */
   tick(): Promise<void> {
-    return this.enqueue(() => this.evaluateTickAll());
+    return this.enqueue(async () => {
+      if (this.running) await this.evaluateTickAll();
+    });
   }
 
   /** A sensor's MQTT last will said "offline". */
   onSensorOffline(sensorId: string): Promise<void> {
-    return this.enqueue(() => this.markSilent(sensorId, this.now()));
+    return this.enqueue(async () => {
+      if (this.running) await this.markSilent(sensorId, this.now());
+    });
+  }
+
+  /** Re-read an alert's tracker after another instance changed it (an acknowledgement). */
+  reloadTracker(alertId: number): Promise<void> {
+    return this.enqueue(async () => {
+      if (!this.running) return;
+      const row = await this.dataSource.getRepository(AlertTrackerEntity).findOneBy({ alertId });
+      const tracker = row && this.trackers.get(row.key);
+      if (tracker) tracker.state = JSON.parse(row.state) as WindowAlertState;
+    });
   }
 
   /** Someone took the alert: re-notification stops. Refused when it is not raised (anymore). */
@@ -150,22 +196,34 @@ export class AlertEngine {
               : "This alert has not been raised yet";
         throw new AppError("alert-not-acknowledgeable", detail, 409);
       }
-      const tracker = [...this.trackers.values()].find((t) => t.alertId === alertId);
       const nowMs = this.now();
+      let storedElsewhere = false;
+      let acknowledged = () => {};
       await this.dataSource.transaction(async (tx) => {
-        if (tracker) {
-          const result = acknowledgeAlert(tracker.state, nowMs, String(user.id));
-          if (result.ok) {
-            tracker.state = result.state;
-            await this.saveTracker(tx, tracker);
+        // The running engine's tracker, or (on another instance) the stored one, which the running engine re-reads.
+        const tracker = this.running ? [...this.trackers.values()].find((t) => t.alertId === alertId) : undefined;
+        const stored = tracker ? null : await tx.getRepository(AlertTrackerEntity).findOneBy({ alertId });
+        const state = tracker?.state ?? (stored ? (JSON.parse(stored.state) as WindowAlertState) : null);
+        const result = state && acknowledgeAlert(state, nowMs, String(user.id));
+        if (result?.ok) {
+          if (tracker) {
+            await this.saveTracker(tx, { ...tracker, state: result.state });
+            acknowledged = () => (tracker.state = result.state);
+          } else if (stored) {
+            await tx.getRepository(AlertTrackerEntity).save({ ...stored, state: JSON.stringify(result.state) });
+            storedElsewhere = true;
           }
         }
-        await tx.getRepository(AlertEntity).update(
-          { id: alertId },
+        // Only while still raised: someone on another instance may have taken it a moment ago.
+        const taken = await tx.getRepository(AlertEntity).update(
+          { id: alertId, phase: "raised" },
           { phase: "acknowledged", acknowledgedAtMs: nowMs, acknowledgedByUserId: user.id, acknowledgedByName: user.name, acknowledgeNote: note || null, updatedAtMs: nowMs },
         );
+        if (taken.affected === 0) throw new AppError("alert-not-acknowledgeable", "Someone acknowledged this alert a moment ago", 409);
       });
+      acknowledged(); // the running engine's tracker, once committed
       this.metrics.alertTransitions.inc({ kind: alert.kind, step: "acknowledged" });
+      if (storedElsewhere) this.onTrackerStored(alertId);
       this.onAlertsChanged([alertId]);
       return (await this.dataSource.getRepository(AlertEntity).findOneByOrFail({ id: alertId }));
     });

@@ -28,13 +28,17 @@ const program = new Command()
   .action(async (opts: { to?: string }) => {
     loadDotEnv();
     const env = parseEnv();
+    if (env.DATABASE_URL) {
+      console.error("DATABASE_URL is set: the database is PostgreSQL's. Back it up with PostgreSQL's own tools (pg_dump, or continuous archiving), and copy the photos folder (PHOTOS_DIR).");
+      process.exit(2);
+    }
     const stamp = new Date().toISOString().replace(/[:.]/g, "-");
     const destination = resolve(opts.to ?? join(dirname(env.DATABASE_PATH), "backups", `benchwarden-${stamp}.sqlite`));
     const result = await backupDatabase(env.DATABASE_PATH, destination);
     console.log(`Backed up ${env.DATABASE_PATH} to ${result.path} (${(result.bytes / 1024 / 1024).toFixed(1)} MB).`);
     // Photos are files beside the database, written once and never changed: a plain copy after
     // the database snapshot holds every photo the snapshot refers to.
-    const photos = join(dirname(env.DATABASE_PATH), "photos");
+    const photos = env.PHOTOS_DIR ? resolve(env.PHOTOS_DIR) : join(dirname(env.DATABASE_PATH), "photos");
     if (existsSync(photos)) {
       const photosCopy = destination.replace(/\.sqlite$/, "") + "-photos";
       cpSync(photos, photosCopy, { recursive: true });

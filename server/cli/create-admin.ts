@@ -3,7 +3,7 @@ import { Writable } from "node:stream";
 import { Command } from "commander";
 import { emailSchema, passwordSchema, personNameSchema } from "../../shared/schemas/auth.js";
 import { ConfigError, loadDotEnv, parseEnv } from "../config/env.js";
-import { createDataSource } from "../db/data-source.js";
+import { createDataSource, databaseTarget } from "../db/data-source.js";
 import { createLogger } from "../lib/logger.js";
 import { AppError } from "../lib/errors.js";
 import { UsersService } from "../modules/users/users.service.js";
@@ -35,7 +35,7 @@ async function readStdin(): Promise<string> {
 
 const program = new Command()
   .name("admin:create")
-  .description("Create an admin account (the first one, outside demo mode) in the database of DATABASE_PATH")
+  .description("Create an admin account (the first one, outside demo mode) in the database of DATABASE_URL or DATABASE_PATH")
   .requiredOption("--email <address>", "the admin's e-mail address (their sign-in)")
   .requiredOption("--name <name>", "the admin's name as shown in the app")
   .option("--password-stdin", "read the password from standard input instead of asking")
@@ -58,7 +58,7 @@ const program = new Command()
       console.error("The two passwords differ; nothing was created.");
       process.exit(2);
     }
-    const dataSource = createDataSource(env.DATABASE_PATH);
+    const dataSource = createDataSource(databaseTarget(env));
     await dataSource.initialize();
     await dataSource.runMigrations({ transaction: "each" });
     const logger = createLogger("silent");

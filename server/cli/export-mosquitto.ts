@@ -3,7 +3,7 @@ import { join, resolve } from "node:path";
 import { Command } from "commander";
 import type { DataSource } from "typeorm";
 import { ConfigError, loadDotEnv, parseEnv } from "../config/env.js";
-import { createDataSource } from "../db/data-source.js";
+import { createDataSource, databaseTarget } from "../db/data-source.js";
 import { BenchEntity } from "../db/entities/bench.entity.js";
 import { SensorEntity } from "../db/entities/sensor.entity.js";
 import { ZoneEntity } from "../db/entities/zone.entity.js";
@@ -122,7 +122,7 @@ function serverCredentials(env: ReturnType<typeof parseEnv>): { username: string
 
 const program = new Command()
   .name("sensors:export-mosquitto")
-  .description("Write mosquitto's password_file and acl_file for the sensors in the database of DATABASE_PATH, and the server's user from MQTT_URL / MQTT_USERNAME / MQTT_PASSWORD")
+  .description("Write mosquitto's password_file and acl_file for the sensors in the database of DATABASE_URL or DATABASE_PATH, and the server's user from MQTT_URL / MQTT_USERNAME / MQTT_PASSWORD")
   .requiredOption("--out-dir <dir>", "folder for passwd, acl (and new-sensor-secrets.json when secrets are rotated)")
   .option("--secrets <file>", "a JSON array of { \"id\", \"secret\" } with sensors' current secrets (repeatable)", (v: string, acc: string[]) => [...acc, v], [] as string[])
   .option("--rotate-missing", "give every enabled sensor whose secret is not in a --secrets file a new one (written once to new-sensor-secrets.json)")
@@ -131,7 +131,7 @@ const program = new Command()
     const env = parseEnv();
     const server = serverCredentials(env);
     const secrets = opts.secrets.flatMap(readSecretsFile);
-    const dataSource = createDataSource(env.DATABASE_PATH);
+    const dataSource = createDataSource(databaseTarget(env));
     await dataSource.initialize();
     try {
       await dataSource.runMigrations({ transaction: "each" });

@@ -12,7 +12,7 @@ import { caughtMailResponseSchema } from "../../shared/schemas/mail.js";
 import { rawDatabase } from "../../server/db/data-source.js";
 import { PROJECT_ROOT } from "../../server/index.js";
 import { ReadingWriter } from "../../server/modules/readings/reading-writer.js";
-import { ReadingsRepository } from "../../server/modules/readings/readings.repository.js";
+import { createReadingStore } from "../../server/modules/readings/reading-store.js";
 import { signIn, startTestServer, waitFor } from "../support/test-server.js";
 
 const TSX = join(PROJECT_ROOT, "node_modules/tsx/dist/cli.mjs");
@@ -158,11 +158,11 @@ describe("graceful shutdown", () => {
     const server = await startTestServer({ ALERT_TICK: "1h" });
     try {
       // A writer that would otherwise wait a minute before committing: only close() can store these now.
-      const writer = new ReadingWriter(new ReadingsRepository(rawDatabase(server.dataSource)), () => undefined, server.metrics, server.logger, { maxWaitMs: 60_000 });
+      const writer = new ReadingWriter(createReadingStore(server.dataSource), () => undefined, server.metrics, server.logger, { maxWaitMs: 60_000 });
       const sensorId = server.credentials[0]!.id;
       const t0 = Date.now() - 60_000;
       const waiting = writer.enqueue([0, 1, 2].map((i) => ({ sensorId, benchId: null, quantity: "air.temperature" as const, timeMs: t0 + i, value: 21 })));
-      writer.close();
+      await writer.close();
       const stored = rawDatabase(server.dataSource).prepare("SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ? AND time_ms >= ?").get(sensorId, t0) as { n: number };
       expect(stored.n).toBe(3);
       await waiting;

@@ -15,6 +15,7 @@ import { WindowPresetEntity } from "./window-preset.entity.js";
 import { BatchEntity, BatchPlacementEntity } from "./batch.entity.js";
 import { ObservationEntity, ObservationPhotoEntity } from "./observation.entity.js";
 import { WalkRoundBenchEntity, WalkRoundEntity } from "./walk-round.entity.js";
+import { LeaderLeaseEntity } from "./leader-lease.entity.js";
 
 export const ENTITIES = [
   AppMetaEntity,
@@ -45,4 +46,5 @@ export const ENTITIES = [
   WalkRoundBenchEntity,
   ReadingRollupEntity,
   ReadingRollupStaleEntity,
+  LeaderLeaseEntity,
 ];

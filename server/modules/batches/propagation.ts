@@ -1,6 +1,5 @@
 import { dirname, join, resolve } from "node:path";
 import type { DataSource } from "typeorm";
-import { rawDatabase } from "../../db/data-source.js";
 import type { Logger } from "../../lib/logger.js";
 import type { Mailer } from "../../mail/outbox.js";
 import type { AlertsService } from "../alerts/alerts.service.js";
@@ -27,24 +26,24 @@ export interface PropagationDeps {
   alerts: AlertsService;
   mailer: Mailer;
   logger: Logger;
-  /** DATABASE_PATH: photos live in a "photos" folder beside the database file. */
-  databasePath: string;
+  /** Where observation photos are stored (PHOTOS_DIR, else a "photos" folder beside DATABASE_PATH). */
+  photosDir: string;
   /** A silence longer than this counts as no data in time-in-window (SENSOR_SILENT_AFTER). */
   silentAfterMs: number;
   appUrl: () => string;
   now?: () => number;
 }
 
-/** The folder photos are stored in: `<folder of the database>/photos`. */
+/** The default folder for photos: `<folder of the database>/photos`. */
 export function photoDirFor(databasePath: string): string {
   return join(dirname(resolve(databasePath)), "photos");
 }
 
 export function createPropagation(deps: PropagationDeps): PropagationServices {
   const now = deps.now ?? Date.now;
-  const environment = new BenchEnvironment(rawDatabase(deps.dataSource), deps.silentAfterMs);
+  const environment = new BenchEnvironment(deps.dataSource, deps.silentAfterMs);
   const batches = new BatchesService(deps.dataSource, now);
-  const photos = new PhotosService(deps.dataSource, photoDirFor(deps.databasePath), now);
+  const photos = new PhotosService(deps.dataSource, deps.photosDir, now);
   const observations = new ObservationsService(deps.dataSource, batches, photos, now);
   const rounds = new RoundsService(
     deps.dataSource,

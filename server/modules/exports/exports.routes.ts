@@ -28,7 +28,7 @@ export function exportsRoutes(table: RouteTable, exportsService: ExportsService)
     res.setHeader("Content-Type", "text/csv; charset=utf-8");
     res.setHeader("Content-Disposition", `attachment; filename="${file.filename}"`);
     res.setHeader("Cache-Control", "no-store");
-    for (const chunk of file.chunks) {
+    for await (const chunk of file.chunks) {
       if (!res.write(chunk) && !(await drained(res))) return;
     }
     res.end();

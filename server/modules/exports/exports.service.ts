@@ -1,4 +1,3 @@
-import type BetterSqlite3 from "better-sqlite3";
 import type { DataSource } from "typeorm";
 import { celsiusToFahrenheit, isTemperature } from "../../../shared/domain/units.js";
 import {
@@ -9,10 +8,10 @@ import {
 } from "../../../shared/schemas/exports.js";
 import { QUANTITIES, type Quantity } from "../../../shared/schemas/quantities.js";
 import { MIN_READING_RETENTION_DAYS } from "../../config/env.js";
-import { rawDatabase } from "../../db/data-source.js";
 import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
 import { SiteEntity } from "../../db/entities/site.entity.js";
 import { ZoneEntity, type Zone } from "../../db/entities/zone.entity.js";
+import { Statements } from "../../db/statements.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import { ROLLUP_RESOLUTIONS_MS } from "../readings/readings.repository.js";
 
@@ -50,7 +49,7 @@ function slug(text: string): string {
 export interface CsvExport {
   filename: string;
   /** The file, piece by piece (the first piece holds the byte-order mark and the header). */
-  chunks: Generator<string>;
+  chunks: AsyncGenerator<string>;
 }
 
 interface RawRow {
@@ -71,52 +70,45 @@ interface BucketRow {
 
 export interface ExportsOptions {
   /** Rebuilds rollup hours a back-dated probe move made stale, before rollups are read. */
-  refreshRollups?: () => void;
+  refreshRollups?: () => void | Promise<void>;
   /** READING_RETENTION_DAYS, named when a raw export asks for readings retention removed. */
   retentionDays?: number;
 }
+
+// quantity IN (…) lets the (bench_id, quantity, time_ms) index serve the time range.
+const QUANTITY_LIST = QUANTITIES.map((q) => `'${q}'`).join(", ");
+
+const EXPORT_SQL = {
+  raw: `SELECT sensor_id AS "sensorId", quantity, time_ms AS "timeMs", value FROM reading
+         WHERE bench_id = @benchId AND quantity IN (${QUANTITY_LIST}) AND time_ms >= @fromMs AND time_ms < @toMs`,
+  // Buckets on UTC multiples of the interval, from the epoch-aligned rollups of the coarsest
+  // resolution that divides it: integer division on both databases (the cast is for SQLite, where JS
+  // numbers bind as REAL; STACK.md).
+  buckets: `SELECT CAST(start_ms / @bucketMs AS INTEGER) AS bucket, quantity,
+                   MIN(min) AS min, SUM(sum) / SUM(count) AS mean, MAX(max) AS max, SUM(count) AS n
+              FROM reading_rollup
+             WHERE bench_id = @benchId AND quantity IN (${QUANTITY_LIST}) AND resolution_ms = @resolutionMs AND start_ms >= @fromMs AND start_ms < @toMs
+             GROUP BY bucket, quantity`,
+  // Raw readings of a stretch against what its 1-minute rollups hold: fewer raw means retention
+  // deleted some (a reading is stored with its rollups in one transaction).
+  countRaw: `SELECT COUNT(*) AS n FROM reading WHERE bench_id = @benchId AND quantity IN (${QUANTITY_LIST}) AND time_ms >= @fromMs AND time_ms < @toMs`,
+  countRolledUp: `SELECT COALESCE(SUM(count), 0) AS n FROM reading_rollup
+                   WHERE bench_id = @benchId AND quantity IN (${QUANTITY_LIST}) AND resolution_ms = ${MINUTE_MS} AND start_ms >= @fromMs AND start_ms < @toMs`,
+};
 
 /**
  * CSV exports of stored readings (issue 7 §6), read in chunks: raw exports from the reading table,
  * rolled-up exports from the rollups (which outlive the raw readings, see modules/retention).
  */
 export class ExportsService {
-  private readonly db: BetterSqlite3.Database;
-  private readonly selectRaw: BetterSqlite3.Statement;
-  private readonly selectBuckets: BetterSqlite3.Statement;
-  private readonly countRaw: BetterSqlite3.Statement;
-  private readonly countRolledUp: BetterSqlite3.Statement;
+  private readonly sql: Statements<keyof typeof EXPORT_SQL>;
 
   constructor(
     private readonly dataSource: DataSource,
     private readonly now: () => number = Date.now,
     private readonly options: ExportsOptions = {},
   ) {
-    this.db = rawDatabase(dataSource);
-    // quantity IN (…) lets the (bench_id, quantity, time_ms) index serve the time range.
-    const quantityList = QUANTITIES.map((q) => `'${q}'`).join(", ");
-    this.selectRaw = this.db.prepare(
-      `SELECT sensor_id AS sensorId, quantity, time_ms AS timeMs, value FROM reading
-        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND time_ms >= @fromMs AND time_ms < @toMs`,
-    );
-    // Buckets on UTC multiples of the interval, from the epoch-aligned rollups of the coarsest
-    // resolution that divides it; integer cast because JS numbers bind as REAL (STACK.md).
-    this.selectBuckets = this.db.prepare(
-      `SELECT CAST(start_ms / @bucketMs AS INTEGER) AS bucket, quantity,
-              MIN(min) AS min, SUM(sum) / SUM(count) AS mean, MAX(max) AS max, SUM(count) AS n
-         FROM reading_rollup
-        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND resolution_ms = @resolutionMs AND start_ms >= @fromMs AND start_ms < @toMs
-        GROUP BY bucket, quantity`,
-    );
-    // Raw readings of a stretch against what its 1-minute rollups hold: fewer raw means retention
-    // deleted some (a reading is stored with its rollups in one transaction).
-    this.countRaw = this.db.prepare(
-      `SELECT COUNT(*) AS n FROM reading WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND time_ms >= @fromMs AND time_ms < @toMs`,
-    );
-    this.countRolledUp = this.db.prepare(
-      `SELECT COALESCE(SUM(count), 0) AS n FROM reading_rollup
-        WHERE bench_id = @benchId AND quantity IN (${quantityList}) AND resolution_ms = ${MINUTE_MS} AND start_ms >= @fromMs AND start_ms < @toMs`,
-    );
+    this.sql = new Statements(dataSource, EXPORT_SQL);
   }
 
   /**
@@ -124,15 +116,21 @@ export class ExportsService {
    * answering with a file that silently lacks them. Retention never deletes readings younger than
    * MIN_READING_RETENTION_DAYS, so only the part of the range older than that is checked.
    */
-  private assertRawKept(benches: Bench[], fromMs: number, toMs: number): void {
+  private async assertRawKept(benches: Bench[], fromMs: number, toMs: number): Promise<void> {
     const checkFromMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
     const checkToMs = Math.ceil(Math.min(toMs, this.now() - MIN_READING_RETENTION_DAYS * DAY_MS) / MINUTE_MS) * MINUTE_MS;
     if (checkFromMs >= checkToMs) return;
-    this.options.refreshRollups?.();
-    const isPruned = benches.some((bench) => {
+    await this.options.refreshRollups?.();
+    let isPruned = false;
+    for (const bench of benches) {
       const args = { benchId: bench.id, fromMs: checkFromMs, toMs: checkToMs };
-      return (this.countRolledUp.get(args) as { n: number }).n > (this.countRaw.get(args) as { n: number }).n;
-    });
+      const rolledUp = (await this.sql.get<{ n: number }>("countRolledUp", args))!.n;
+      const raw = (await this.sql.get<{ n: number }>("countRaw", args))!.n;
+      if (rolledUp > raw) {
+        isPruned = true;
+        break;
+      }
+    }
     if (!isPruned) return;
     const days = this.options.retentionDays ?? 0;
     const kept = days > 0 ? `Raw readings are kept for ${days} days (READING_RETENTION_DAYS)` : "An earlier retention setting deleted raw readings of this range";
@@ -172,21 +170,20 @@ export class ExportsService {
       ? ["time (UTC)", `time (${timeZone})`, "zone", "bench", "sensor", ...QUANTITIES.map((q) => `${q} (${unit(q)})`)]
       : ["time (UTC)", `time (${timeZone})`, "zone", "bench", ...QUANTITIES.flatMap((q) => [`${q} mean (${unit(q)})`, `${q} min (${unit(q)})`, `${q} max (${unit(q)})`, `${q} readings`])];
 
-    if (raw) this.assertRawKept(benches, fromMs, toMs);
-    else this.options.refreshRollups?.();
+    if (raw) await this.assertRawKept(benches, fromMs, toMs);
+    else await this.options.refreshRollups?.();
 
     const zoneName = new Map(zone.map((z) => [z.id, z.name]));
     const order = new Map(benches.map((b, i) => [b.id, i]));
-    const selectRaw = this.selectRaw;
-    const selectBuckets = this.selectBuckets;
+    const sql = this.sql;
 
-    function* rawChunks(): Generator<string> {
+    async function* rawChunks(): AsyncGenerator<string> {
       for (let start = fromMs; start < toMs; start += RAW_CHUNK_MS) {
         const end = Math.min(toMs, start + RAW_CHUNK_MS);
         const rows: { timeMs: number; bench: Bench; sensorId: string; values: Map<Quantity, number> }[] = [];
         for (const bench of benches) {
           const byKey = new Map<string, (typeof rows)[number]>();
-          for (const r of selectRaw.all({ benchId: bench.id, fromMs: start, toMs: end }) as RawRow[]) {
+          for (const r of await sql.all<RawRow>("raw", { benchId: bench.id, fromMs: start, toMs: end })) {
             const key = `${r.timeMs}\u0000${r.sensorId}`;
             let row = byKey.get(key);
             if (!row) byKey.set(key, (row = { timeMs: r.timeMs, bench, sensorId: r.sensorId, values: new Map() }));
@@ -204,14 +201,14 @@ export class ExportsService {
       }
     }
 
-    function* rollupChunks(): Generator<string> {
+    async function* rollupChunks(): AsyncGenerator<string> {
       const step = bucketMs * ROLLUP_CHUNK_BUCKETS;
       for (let start = fromMs; start < toMs; start += step) {
         const end = Math.min(toMs, start + step);
         const rows: { timeMs: number; bench: Bench; byQuantity: Map<Quantity, BucketRow> }[] = [];
         for (const bench of benches) {
           const byBucket = new Map<number, (typeof rows)[number]>();
-          for (const r of selectBuckets.all({ benchId: bench.id, fromMs: start, toMs: end, bucketMs, resolutionMs }) as BucketRow[]) {
+          for (const r of await sql.all<BucketRow>("buckets", { benchId: bench.id, fromMs: start, toMs: end, bucketMs, resolutionMs })) {
             let row = byBucket.get(r.bucket);
             if (!row) byBucket.set(r.bucket, (row = { timeMs: r.bucket * bucketMs, bench, byQuantity: new Map() }));
             row.byQuantity.set(r.quantity, r);
@@ -231,7 +228,7 @@ export class ExportsService {
       }
     }
 
-    function* all(): Generator<string> {
+    async function* all(): AsyncGenerator<string> {
       yield "\uFEFF" + csvLine(header);
       yield* raw ? rawChunks() : rollupChunks();
     }

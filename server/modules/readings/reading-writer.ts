@@ -1,6 +1,7 @@
 import type { Logger } from "../../lib/logger.js";
 import type { Metrics } from "../../lib/metrics.js";
-import type { ReadingRow, ReadingsRepository } from "./readings.repository.js";
+import type { ReadingStore } from "./reading-store.js";
+import type { ReadingRow } from "./readings.repository.js";
 
 interface Pending {
   rows: ReadingRow[];
@@ -22,17 +23,22 @@ export interface ReadingWriterOptions {
 /**
  * Gathers readings from many messages into one transaction. Each enqueue() resolves only after
  * the transaction holding its rows has committed, so the caller can acknowledge to the sensor then.
+ * One transaction is in flight at a time; rows arriving meanwhile gather for the next one.
  */
 export class ReadingWriter {
   private queue: Pending[] = [];
   private queuedRows = 0;
   private timer: NodeJS.Timeout | NodeJS.Immediate | null = null;
   private closed = false;
+  /** The transaction in flight. */
+  private writing: Promise<void> | null = null;
+  /** The flush asked for while one was in flight: it starts when that one ends. */
+  private next: Promise<void> | null = null;
   private readonly maxBatchRows: number;
   private readonly maxWaitMs: number;
 
   constructor(
-    private readonly repository: ReadingsRepository,
+    private readonly store: Pick<ReadingStore, "insertReadings">,
     private readonly onStored: (rows: ReadingRow[]) => void,
     private readonly metrics: Metrics,
     private readonly logger: Logger,
@@ -48,27 +54,45 @@ export class ReadingWriter {
     return new Promise<void>((resolve, reject) => {
       this.queue.push({ rows, resolve, reject });
       this.queuedRows += rows.length;
-      if (this.queuedRows >= this.maxBatchRows) this.flush();
-      else this.timer ??= this.maxWaitMs > 0 ? setTimeout(() => this.flush(), this.maxWaitMs) : setImmediate(() => this.flush());
+      if (this.queuedRows >= this.maxBatchRows) void this.flush();
+      else this.timer ??= this.maxWaitMs > 0 ? setTimeout(() => void this.flush(), this.maxWaitMs) : setImmediate(() => void this.flush());
     });
   }
 
-  /** Write everything waiting now, in one transaction. */
-  flush(): void {
+  /**
+   * Write everything waiting now in one transaction, after the one in flight if any. Resolves
+   * once that is committed or has failed; never rejects (a failure rejects the enqueue() calls).
+   */
+  flush(): Promise<void> {
     if (this.timer) {
       clearTimeout(this.timer as NodeJS.Timeout);
       clearImmediate(this.timer as NodeJS.Immediate);
     }
     this.timer = null;
+    if (this.writing) {
+      if (this.queue.length === 0) return this.writing;
+      return (this.next ??= this.writing.then(() => {
+        this.next = null;
+        return this.flush();
+      }));
+    }
     const batch = this.queue;
-    if (batch.length === 0) return;
+    if (batch.length === 0) return Promise.resolve();
     this.queue = [];
     this.queuedRows = 0;
+    const writing = this.write(batch).finally(() => {
+      this.writing = null;
+    });
+    this.writing = writing;
+    return writing;
+  }
+
+  private async write(batch: Pending[]): Promise<void> {
     const rows = batch.flatMap((p) => p.rows);
     let stored: ReadingRow[];
     const startedNs = process.hrtime.bigint();
     try {
-      stored = this.repository.insertReadings(rows);
+      stored = await this.store.insertReadings(rows);
       this.metrics.batchCommitSeconds.observe(Number(process.hrtime.bigint() - startedNs) / 1e9);
       this.metrics.batchRows.observe(rows.length);
     } catch (err) {
@@ -89,9 +113,9 @@ export class ReadingWriter {
     }
   }
 
-  /** Flush what is waiting and refuse anything new. */
-  close(): void {
-    this.flush();
+  /** Refuse anything new, then write what is waiting; resolves once that is committed (or has failed). */
+  close(): Promise<void> {
     this.closed = true;
+    return this.flush();
   }
 }

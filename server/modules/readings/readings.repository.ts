@@ -24,9 +24,11 @@ export const ROLLUP_RESOLUTIONS_MS = [60_000, 900_000, 3_600_000] as const;
 const MINUTE_MS = 60_000;
 const HOUR_MS = 3_600_000;
 
-interface RollupCell {
+/** What a batch adds to one rollup cell: min, max, sum and count of its new readings there. */
+export interface RollupCell {
   benchId: number;
   quantity: Quantity;
+  resolutionMs: number;
   startMs: number;
   min: number;
   max: number;
@@ -46,6 +48,80 @@ function tierBounds(fromMs: number, toMs: number, bucketMs: number) {
   const coarseFromMs = Math.min(minuteToMs, Math.max(minuteFromMs, Math.ceil(minuteFromMs / coarseMs) * coarseMs));
   const coarseToMs = Math.max(coarseFromMs, Math.floor(minuteToMs / coarseMs) * coarseMs);
   return { coarseMs, minuteFromMs, minuteToMs, coarseFromMs, coarseToMs };
+}
+
+/** The minutes seriesTierBounds may ask isGone about: those the range starts or ends inside. */
+export function edgeMinutes(fromMs: number, toMs: number): number[] {
+  const startMinuteMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
+  const endMinuteMs = Math.floor(toMs / MINUTE_MS) * MINUTE_MS;
+  return [...new Set([...(startMinuteMs < fromMs ? [startMinuteMs] : []), ...(endMinuteMs < toMs ? [endMinuteMs] : [])])];
+}
+
+/**
+ * tierBounds, except that a range end inside a minute whose raw readings retention deleted reads
+ * that whole minute from its 1-minute rollup (the raw tier at that end becomes empty), rather than
+ * lose the readings in it. Like every rolled-up minute it goes to the bucket its start falls in,
+ * and it may hold up to 59 s of readings just outside the range. isGone is asked only about
+ * edgeMinutes(fromMs, toMs).
+ */
+export function seriesTierBounds(fromMs: number, toMs: number, bucketMs: number, isGone: (minuteMs: number) => boolean) {
+  const startMinuteMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
+  const endMinuteMs = Math.floor(toMs / MINUTE_MS) * MINUTE_MS;
+  const fromEdgeMs = startMinuteMs < fromMs && isGone(startMinuteMs) ? startMinuteMs : fromMs;
+  let toEdgeMs = toMs;
+  if (endMinuteMs < toMs) {
+    // A range inside one minute whose raw readings are gone reads that minute whole.
+    if (endMinuteMs === startMinuteMs && fromEdgeMs < fromMs) toEdgeMs = endMinuteMs + MINUTE_MS;
+    else if (endMinuteMs >= fromMs && isGone(endMinuteMs)) toEdgeMs = endMinuteMs + MINUTE_MS;
+  }
+  return tierBounds(fromEdgeMs, toEdgeMs, bucketMs);
+}
+
+/** The newest of the rows per sensor and quantity (the first of equal times): what latest_reading is offered. */
+export function newestPerSeries(rows: readonly ReadingRow[]): ReadingRow[] {
+  const newest = new Map<string, ReadingRow>();
+  for (const row of rows) {
+    const key = `${row.sensorId}\u0000${row.quantity}`;
+    const seen = newest.get(key);
+    if (!seen || row.timeMs > seen.timeMs) newest.set(key, row);
+  }
+  return [...newest.values()];
+}
+
+/** The rollup cells of every resolution that newly stored rows add to; rows without a bench add nothing. */
+export function rollupCellsOf(stored: readonly ReadingRow[]): RollupCell[] {
+  const minutes = new Map<string, RollupCell>();
+  for (const row of stored) {
+    if (row.benchId === null) continue;
+    const startMs = Math.floor(row.timeMs / MINUTE_MS) * MINUTE_MS;
+    const key = `${row.benchId}\u0000${row.quantity}\u0000${startMs}`;
+    const cell = minutes.get(key);
+    if (cell) {
+      if (row.value < cell.min) cell.min = row.value;
+      if (row.value > cell.max) cell.max = row.value;
+      cell.sum += row.value;
+      cell.count++;
+    } else {
+      minutes.set(key, { benchId: row.benchId, quantity: row.quantity, resolutionMs: MINUTE_MS, startMs, min: row.value, max: row.value, sum: row.value, count: 1 });
+    }
+  }
+  const cells = [...minutes.values()];
+  for (const resolutionMs of ROLLUP_RESOLUTIONS_MS.slice(1)) {
+    const merged = new Map<string, RollupCell>();
+    for (const cell of minutes.values()) {
+      const startMs = Math.floor(cell.startMs / resolutionMs) * resolutionMs;
+      const key = `${cell.benchId}\u0000${cell.quantity}\u0000${startMs}`;
+      const into = merged.get(key);
+      if (into) {
+        into.min = Math.min(into.min, cell.min);
+        into.max = Math.max(into.max, cell.max);
+        into.sum += cell.sum;
+        into.count += cell.count;
+      } else merged.set(key, { ...cell, resolutionMs, startMs });
+    }
+    cells.push(...merged.values());
+  }
+  return cells;
 }
 
 /**
@@ -158,16 +234,12 @@ export class ReadingsRepository {
     );
     this.insertBatch = db.transaction((rows: ReadingRow[]) => {
       const stored: ReadingRow[] = [];
-      const newest = new Map<string, ReadingRow>();
       for (const row of rows) {
         if (this.insertReading.run(row).changes === 0) continue; // already stored: a re-send
         stored.push(row);
-        const key = `${row.sensorId}\u0000${row.quantity}`;
-        const seen = newest.get(key);
-        if (!seen || row.timeMs > seen.timeMs) newest.set(key, row);
       }
-      for (const row of newest.values()) this.upsertLatest.run(row);
-      this.addToRollups(stored);
+      for (const row of newestPerSeries(stored)) this.upsertLatest.run(row);
+      for (const cell of rollupCellsOf(stored)) this.upsertRollup.run(cell);
       return stored;
     });
   }
@@ -175,40 +247,6 @@ export class ReadingsRepository {
   /** Store a batch in one transaction; returns the rows that were new (duplicates are skipped). */
   insertReadings(rows: ReadingRow[]): ReadingRow[] {
     return this.insertBatch(rows);
-  }
-
-  /** Add newly stored rows to the rollups of their bench (inside the insert's transaction). */
-  private addToRollups(stored: ReadingRow[]): void {
-    const cells = new Map<string, RollupCell>();
-    for (const row of stored) {
-      if (row.benchId === null) continue;
-      const startMs = Math.floor(row.timeMs / MINUTE_MS) * MINUTE_MS;
-      const key = `${row.benchId}\u0000${row.quantity}\u0000${startMs}`;
-      const cell = cells.get(key);
-      if (cell) {
-        if (row.value < cell.min) cell.min = row.value;
-        if (row.value > cell.max) cell.max = row.value;
-        cell.sum += row.value;
-        cell.count++;
-      } else {
-        cells.set(key, { benchId: row.benchId, quantity: row.quantity, startMs, min: row.value, max: row.value, sum: row.value, count: 1 });
-      }
-    }
-    for (const resolutionMs of ROLLUP_RESOLUTIONS_MS) {
-      const merged = new Map<string, RollupCell>();
-      for (const cell of cells.values()) {
-        const startMs = Math.floor(cell.startMs / resolutionMs) * resolutionMs;
-        const key = `${cell.benchId}\u0000${cell.quantity}\u0000${startMs}`;
-        const into = merged.get(key);
-        if (into) {
-          into.min = Math.min(into.min, cell.min);
-          into.max = Math.max(into.max, cell.max);
-          into.sum += cell.sum;
-          into.count += cell.count;
-        } else merged.set(key, { ...cell, startMs });
-      }
-      for (const cell of merged.values()) this.upsertRollup.run({ ...cell, resolutionMs });
-    }
   }
 
   /** Rebuild rollup hours a back-dated sensor move made stale (normally there are none); exports call it before reading rollups. */
@@ -274,25 +312,10 @@ export class ReadingsRepository {
     return { benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), fromMs, toMs, bucketMs, ...this.tierBoundsOverGoneMinutes(benchIds, quantities, fromMs, toMs, bucketMs) };
   }
 
-  /**
-   * tierBounds, except that a range end inside a minute whose raw readings retention deleted reads
-   * that whole minute from its 1-minute rollup (the raw tier at that end becomes empty), rather than
-   * lose the readings in it. Like every rolled-up minute it goes to the bucket its start falls in,
-   * and it may hold up to 59 s of readings just outside the range.
-   */
   private tierBoundsOverGoneMinutes(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number) {
     const isGone = (minuteMs: number) =>
       (this.selectRawGone.get({ benchIds: JSON.stringify(benchIds), quantities: JSON.stringify(quantities), minuteMs }) as { gone: number }).gone === 1;
-    const startMinuteMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
-    const endMinuteMs = Math.floor(toMs / MINUTE_MS) * MINUTE_MS;
-    const fromEdgeMs = startMinuteMs < fromMs && isGone(startMinuteMs) ? startMinuteMs : fromMs;
-    let toEdgeMs = toMs;
-    if (endMinuteMs < toMs) {
-      // A range inside one minute whose raw readings are gone reads that minute whole.
-      if (endMinuteMs === startMinuteMs && fromEdgeMs < fromMs) toEdgeMs = endMinuteMs + MINUTE_MS;
-      else if (endMinuteMs >= fromMs && isGone(endMinuteMs)) toEdgeMs = endMinuteMs + MINUTE_MS;
-    }
-    return tierBounds(fromEdgeMs, toEdgeMs, bucketMs);
+    return seriesTierBounds(fromMs, toMs, bucketMs, isGone);
   }
 
   /** The newest reading per sensor and quantity, for every sensor on a bench. */

@@ -6,7 +6,7 @@ import { SiteEntity } from "../../db/entities/site.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import { badRequest, notFound } from "../../lib/errors.js";
 import type { WindowsService } from "../windows/windows.service.js";
-import type { ReadingsRepository } from "./readings.repository.js";
+import type { ReadingStore } from "./reading-store.js";
 
 const DAY_MS = 24 * 3600 * 1000;
 /** The longest range one request may ask for: a season's chart, still cut into MAX_SERIES_POINTS buckets. */
@@ -28,7 +28,7 @@ export function bucketSizeMs(rangeMs: number): number {
 export class ReadingsService {
   constructor(
     private readonly dataSource: DataSource,
-    private readonly repository: ReadingsRepository,
+    private readonly repository: ReadingStore,
     private readonly windows: WindowsService,
     private readonly now: () => number = Date.now,
   ) {}
@@ -54,10 +54,12 @@ export class ReadingsService {
       toMs,
       bucketMs,
       windows: await this.windows.windowsOf(bench.id),
-      series: quantities.map((quantity) => ({
-        quantity,
-        points: this.repository.series(bench.id, quantity, fromMs, toMs, bucketMs),
-      })),
+      series: await Promise.all(
+        quantities.map(async (quantity) => ({
+          quantity,
+          points: await this.repository.series(bench.id, quantity, fromMs, toMs, bucketMs),
+        })),
+      ),
     };
   }
 
@@ -73,7 +75,7 @@ export class ReadingsService {
     const { fromMs, toMs, bucketMs } = this.range(query);
 
     const quantities = query.quantity ? [query.quantity] : [...QUANTITIES];
-    const series = this.repository.seriesOfBenches(
+    const series = await this.repository.seriesOfBenches(
       benches.map((b) => b.id),
       quantities,
       fromMs,

@@ -84,7 +84,7 @@ export class ReportsService {
     return { records, views: await this.batches.views(records) };
   }
 
-  private computeRow(record: BatchRecord, view: BatchView, nowMs: number): ComputedRow {
+  private async computeRow(record: BatchRecord, view: BatchView, nowMs: number): Promise<ComputedRow> {
     const endMs = lifeEndMs(record, view.bench.timeZone, nowMs);
     const stretches = view.placements
       .map((p) => ({ placement: p, fromMs: p.fromMs, toMs: Math.min(p.toMs ?? endMs, endMs) }))
@@ -98,7 +98,7 @@ export class ReportsService {
       for (const s of stretches) {
         const w = this.windows.windowFor(s.placement.benchId, quantity);
         if (w) hasWindow = true;
-        const { result, sampled: wasSampled } = this.environment.timeInWindow(
+        const { result, sampled: wasSampled } = await this.environment.timeInWindow(
           s.placement.benchId,
           quantity,
           w ? { min: w.min, max: w.max } : null,
@@ -198,7 +198,9 @@ export class ReportsService {
     await this.windows.ready();
     const { records, views } = await this.selected(query);
     const nowMs = this.now();
-    return records.map((record, i) => this.computeRow(record, views[i]!, nowMs));
+    const rows: ComputedRow[] = [];
+    for (const [i, record] of records.entries()) rows.push(await this.computeRow(record, views[i]!, nowMs));
+    return rows;
   }
 
   async strikeRates(query: ReportQuery): Promise<StrikeRateReport> {

@@ -1,4 +1,4 @@
-import type BetterSqlite3 from "better-sqlite3";
+import type { DataSource } from "typeorm";
 import type { Logger } from "../../lib/logger.js";
 import type { Metrics } from "../../lib/metrics.js";
 import { RetentionRepository, type RetentionCursor, type RetentionRules } from "./retention.repository.js";
@@ -11,6 +11,8 @@ export const RETENTION_EVERY_MS = HOUR_MS;
 export interface RetentionOptions {
   /** Raw readings older than this go once their rollups exist; 0 = keep forever (the job does nothing). */
   retentionDays: number;
+  /** Whether the hourly pass runs on this instance (the one holding the alert lease); default always. */
+  isOurTurn?: () => boolean;
   /** Most readings one transaction deletes. */
   chunkRows: number;
   /**
@@ -57,9 +59,10 @@ export interface RetentionRun {
  * only until the batch closes would empty the report of a long batch the hour after it is closed,
  * just when the manager reads it. A batch reopened within the retention finds its readings intact.
  *
- * Ingest shares the SQLite writer and runs on the same thread: each chunk is one short synchronous
+ * On SQLite, ingest shares the writer and runs on the same thread: each chunk is one short synchronous
  * transaction, and the pass yields to the event loop between chunks, so a waiting ingest batch
- * commits after at most one chunk.
+ * commits after at most one chunk. On PostgreSQL a chunk is one transaction on one pooled client and
+ * ingest commits alongside it; instances sharing the database take turns chunk by chunk.
  */
 export class ReadingRetention {
   private readonly repository: RetentionRepository;
@@ -69,12 +72,12 @@ export class ReadingRetention {
   private stopping = false;
 
   constructor(
-    db: BetterSqlite3.Database,
+    dataSource: DataSource,
     private readonly options: RetentionOptions,
     private readonly metrics: Metrics,
     private readonly logger: Logger,
   ) {
-    this.repository = new RetentionRepository(db);
+    this.repository = new RetentionRepository(dataSource);
     this.now = options.now ?? Date.now;
   }
 
@@ -89,7 +92,7 @@ export class ReadingRetention {
       return;
     }
     const tick = () => {
-      if (this.current || this.stopping) return;
+      if (this.current || this.stopping || !(this.options.isOurTurn?.() ?? true)) return;
       void this.run().catch((err: unknown) => this.logger.error({ err }, "raw-reading retention pass failed"));
     };
     tick();
@@ -144,7 +147,7 @@ export class ReadingRetention {
       stopped: false,
     };
     if (!this.isEnabled) return run;
-    const series = this.repository.series();
+    const series = await this.repository.series();
     const cursor: RetentionCursor = { series: 0, fromMs: 0 };
     for (;;) {
       if (this.stopping) {
@@ -152,7 +155,7 @@ export class ReadingRetention {
         break;
       }
       const chunkStartedMs = performance.now();
-      const chunk = this.repository.chunk(series, cursor, rules);
+      const chunk = await this.repository.chunk(series, cursor, rules);
       const chunkMs = performance.now() - chunkStartedMs;
       run.chunks++;
       run.deletedRows += chunk.deletedRows;

@@ -270,13 +270,14 @@ export class RoundsService {
     return { fromMs: Math.min(fromMs, toMs), toMs, since: previous ? "last-round" : "evening-before", sinceRoundId: previous?.roundId ?? null, capped };
   }
 
-  private quantityCards(benchId: number, period: { fromMs: number; toMs: number }): QuantityCard[] {
-    return WINDOWED_QUANTITIES.map((quantity) => {
+  private async quantityCards(benchId: number, period: { fromMs: number; toMs: number }): Promise<QuantityCard[]> {
+    const cards: QuantityCard[] = [];
+    for (const quantity of WINDOWED_QUANTITIES) {
       const w = this.deps.windows.windowFor(benchId, quantity);
       const window = w ? { min: w.min, max: w.max } : null;
-      const extremes = this.deps.environment.extremes(benchId, quantity, period);
-      const { result, sampled } = this.deps.environment.timeInWindow(benchId, quantity, window, period, CARD_MAX_SAMPLES);
-      return {
+      const extremes = await this.deps.environment.extremes(benchId, quantity, period);
+      const { result, sampled } = await this.deps.environment.timeInWindow(benchId, quantity, window, period, CARD_MAX_SAMPLES);
+      cards.push({
         quantity,
         window,
         min: extremes?.min ?? null,
@@ -286,8 +287,9 @@ export class RoundsService {
         minutesOutOfWindow: Math.round(result.minutes.below + result.minutes.above),
         insidePct: result.insidePctOfData,
         sampled,
-      };
-    });
+      });
+    }
+    return cards;
   }
 
   private async alertsIn(benchId: number, period: { fromMs: number; toMs: number }) {
@@ -324,7 +326,7 @@ export class RoundsService {
   private async cardOf(round: WalkRoundRecord, scope: Scope, entry: ScopeBench, check: WalkRoundBenchRecord | undefined, nowMs: number): Promise<BenchCard> {
     await this.deps.windows.ready();
     const period = await this.periodOf(round, entry.bench.id, scope.site, check, nowMs);
-    const air = this.deps.environment.airMoisture(entry.bench.id, period, CARD_MAX_SAMPLES);
+    const air = await this.deps.environment.airMoisture(entry.bench.id, period, CARD_MAX_SAMPLES);
     return {
       roundId: round.id,
       benchId: entry.bench.id,
@@ -333,7 +335,7 @@ export class RoundsService {
       zoneName: entry.zone.name,
       order: entry.order,
       period,
-      quantities: this.quantityCards(entry.bench.id, period),
+      quantities: await this.quantityCards(entry.bench.id, period),
       air: {
         pairCount: air.pairCount,
         dewPointC: air.dewPoint,

@@ -1,5 +1,5 @@
 import { createHash, randomBytes, timingSafeEqual } from "node:crypto";
-import { IsNull, type DataSource, type EntityManager } from "typeorm";
+import { IsNull, MoreThanOrEqual, type DataSource, type EntityManager } from "typeorm";
 import { isIdentity, type SensorCalibration } from "../../../shared/domain/calibration.js";
 import { WINDOWED_QUANTITIES, type WindowedQuantity } from "../../../shared/schemas/quantities.js";
 import type { AuditChange, AuditValueKind } from "../../../shared/schemas/audit.js";
@@ -13,12 +13,13 @@ import {
   type UpdateSensorInput,
 } from "../../../shared/schemas/sensors.js";
 import { BenchEntity, type Bench } from "../../db/entities/bench.entity.js";
+import { LatestReadingEntity, ReadingEntity } from "../../db/entities/reading.entity.js";
 import { SensorAssignmentEntity, type SensorAssignmentRecord } from "../../db/entities/sensor-assignment.entity.js";
 import { SensorEntity, type Sensor } from "../../db/entities/sensor.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
 import { AppError, notFound } from "../../lib/errors.js";
 import { auditChange, writeAuditEntry } from "../audit/audit.service.js";
-import type { ReadingsRepository } from "../readings/readings.repository.js";
+import type { ReadingStore } from "../readings/reading-store.js";
 
 /** The calibration stored with a sensor; a row that does not parse reads every quantity as measured. */
 export function parseCalibration(json: string): SensorCalibration {
@@ -75,11 +76,23 @@ export class SensorsService {
   private parsedCalibrations = new WeakMap<Sensor, SensorCalibration>();
   /** Told when a sensor's credentials stop being valid, so the broker can drop its connection. */
   onRevoked: (sensorId: string) => void = () => {};
+  /** Told after a sensor's settings changed here, so other server instances drop their cached copy. */
+  onChanged: (sensorId: string) => void = () => {};
 
   constructor(
     private readonly dataSource: DataSource,
-    private readonly readings?: ReadingsRepository,
+    private readonly readings?: ReadingStore,
   ) {}
+
+  private changed(id: string): void {
+    this.cache.delete(id);
+    this.onChanged(id);
+  }
+
+  /** Drop a cached sensor another instance changed; the next message re-reads it. */
+  forget(id: string): void {
+    this.cache.delete(id);
+  }
 
   async reload(): Promise<void> {
     const sensors = await this.dataSource.getRepository(SensorEntity).find();
@@ -200,18 +213,17 @@ export class SensorsService {
       const atMs = Math.min(fromMs, nowMs);
       if (atMs < nowMs) {
         refiled = await this.countSince(tx, id, atMs);
-        await tx.query(`UPDATE reading SET bench_id = ? WHERE sensor_id = ? AND time_ms >= ?`, [input.benchId, id, atMs]);
-        await tx.query(`UPDATE latest_reading SET bench_id = ? WHERE sensor_id = ? AND time_ms >= ?`, [input.benchId, id, atMs]);
+        await tx.getRepository(ReadingEntity).update({ sensorId: id, timeMs: MoreThanOrEqual(atMs) }, { benchId: input.benchId });
+        await tx.getRepository(LatestReadingEntity).update({ sensorId: id, timeMs: MoreThanOrEqual(atMs) }, { benchId: input.benchId });
       }
       await this.recordMove(tx, id, sensor.benchId, input.benchId, atMs, nowMs, refiled > 0 ? `Dated back; ${refiled} readings re-filed to the new bench` : null);
     });
-    this.cache.delete(id);
+    this.changed(id);
     return { assignments: await this.assignmentViews({ sensorId: id }), readingsRefiled: refiled };
   }
 
   private async countSince(manager: EntityManager, sensorId: string, atMs: number): Promise<number> {
-    const rows = (await manager.query(`SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ? AND time_ms >= ?`, [sensorId, atMs])) as { n: number }[];
-    return Number(rows[0]?.n ?? 0);
+    return manager.getRepository(ReadingEntity).countBy({ sensorId, timeMs: MoreThanOrEqual(atMs) });
   }
 
   private async find(id: string): Promise<Sensor | undefined> {
@@ -252,7 +264,7 @@ export class SensorsService {
       this.dataSource.getRepository(BenchEntity).find(),
       this.dataSource.getRepository(ZoneEntity).find(),
     ]);
-    const latest = this.readings?.latestOnBenches() ?? [];
+    const latest = (await this.readings?.latestOnBenches()) ?? [];
     return sensors.map((s) => {
       const bench = benches.find((b) => b.id === s.benchId);
       const mine = latest.filter((l) => l.sensorId === s.id);
@@ -306,7 +318,7 @@ export class SensorsService {
       });
       if (input.benchId !== null) await this.recordMove(tx, input.id, null, input.benchId, nowMs, nowMs);
     });
-    this.cache.delete(input.id);
+    this.changed(input.id);
     return { sensor: await this.view(input.id), secret };
   }
 
@@ -315,7 +327,7 @@ export class SensorsService {
     await this.view(id);
     const secret = generateSecret();
     await this.dataSource.getRepository(SensorEntity).update({ id }, { secretHash: hashSecret(secret) });
-    this.cache.delete(id);
+    this.changed(id);
     this.onRevoked(id);
     return { sensor: await this.view(id), secret };
   }
@@ -352,7 +364,7 @@ export class SensorsService {
       // A bench change is a move: the assignment history and the audit trail record it.
       if (input.benchId !== undefined && input.benchId !== current.benchId) await this.recordMove(tx, id, current.benchId, input.benchId, nowMs, nowMs);
     });
-    this.cache.delete(id);
+    this.changed(id);
     if (input.disabled === true) this.onRevoked(id);
     return this.view(id);
   }

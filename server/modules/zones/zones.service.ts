@@ -7,7 +7,7 @@ import { BenchEntity } from "../../db/entities/bench.entity.js";
 import { SensorEntity } from "../../db/entities/sensor.entity.js";
 import { SiteEntity } from "../../db/entities/site.entity.js";
 import { ZoneEntity } from "../../db/entities/zone.entity.js";
-import type { ReadingsRepository } from "../readings/readings.repository.js";
+import type { ReadingStore } from "../readings/reading-store.js";
 import type { WindowsService } from "../windows/windows.service.js";
 
 const WINDOWED = new Set<Quantity>(WINDOWED_QUANTITIES);
@@ -16,7 +16,7 @@ const WINDOWED = new Set<Quantity>(WINDOWED_QUANTITIES);
 export class ZonesService {
   constructor(
     private readonly dataSource: DataSource,
-    private readonly readings: ReadingsRepository,
+    private readonly readings: ReadingStore,
     private readonly windows: WindowsService,
     private readonly alerts?: { openByBench(): Promise<Map<number, AlertView[]>> },
   ) {}
@@ -35,7 +35,7 @@ export class ZonesService {
     // Per bench and quantity, the newest value from any of its sensors.
     const latestByBench = new Map<number, Map<Quantity, LatestReading>>();
     const lastSeenBySensor = new Map<string, number>();
-    for (const row of this.readings.latestOnBenches()) {
+    for (const row of await this.readings.latestOnBenches()) {
       lastSeenBySensor.set(row.sensorId, Math.max(lastSeenBySensor.get(row.sensorId) ?? 0, row.timeMs));
       if (row.benchId === null) continue;
       const perQuantity = latestByBench.get(row.benchId) ?? new Map<Quantity, LatestReading>();
