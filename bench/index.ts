@@ -15,6 +15,7 @@ const BENCHES: Record<string, string> = {
   charts: "bench/charts.ts",
   "sqlite-ceiling": "bench/sqlite-ceiling.ts",
   "client-size": "bench/client-size.ts",
+  cluster: "bench/cluster.ts",
 };
 
 const args = process.argv.slice(2);

@@ -13,6 +13,7 @@ import { createApp } from "./app.js";
 import { ConfigError, type Env } from "./config/env.js";
 import { LocalEventBus, PostgresEventBus, type EventBus } from "./coordination/event-bus.js";
 import { Lease } from "./coordination/lease.js";
+import { SessionReaper, sessionLeaseName } from "./coordination/session-reaper.js";
 import { createDataSource, databaseTarget, isPostgres, postgresPool } from "./db/data-source.js";
 import { AppMetaEntity } from "./db/entities/app-meta.entity.js";
 import { UserEntity } from "./db/entities/user.entity.js";
@@ -50,7 +51,7 @@ import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
 import { createPropagation, photoDirFor } from "./modules/batches/propagation.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
-import { connectExternalBroker, type ExternalBroker } from "./mqtt/external-broker.js";
+import { connectExternalBroker, drainSession, type ExternalBroker, type ExternalBrokerDeps } from "./mqtt/external-broker.js";
 import { createIngest } from "./mqtt/ingest.js";
 
 export const PROJECT_ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
@@ -340,9 +341,13 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     logger,
   );
   // Exactly one instance runs the alert engine and sends the mail; another takes over when it dies.
+  const leaseRenewMs = Math.max(500, Math.floor(env.LEADER_LEASE_TTL / 5));
+  let sessionLease: Lease | null = null;
+  let reaper: SessionReaper | null = null;
+  let reapTimer: NodeJS.Timeout | null = null;
   const lease = new Lease(
     dataSource,
-    { name: "alerts", holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: Math.max(500, Math.floor(env.LEADER_LEASE_TTL / 5)) },
+    { name: "alerts", holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: leaseRenewMs },
     logger,
     async () => {
       await engine.start();
@@ -392,7 +397,10 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
         http.closeAllConnections();
         await new Promise<void>((r) => http!.close(() => r()));
       }
+      if (reapTimer) clearInterval(reapTimer);
+      await reaper?.stop();
       if (broker) await broker.close();
+      await sessionLease?.stop();
       await writer.close();
       await passRunning?.catch(() => undefined);
       await lease.stop();
@@ -414,11 +422,22 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
     if (env.MQTT_URL) {
       // The broker signs the sensors in: a rotated or disabled sensor is refused there once the
       // exported password file is reloaded (docs/mosquitto.md); ingest refuses a disabled one now.
-      const external = await connectExternalBroker(
-        { url: env.MQTT_URL, username: env.MQTT_USERNAME, password: env.MQTT_PASSWORD, clientId: env.MQTT_CLIENT_ID, shareGroup: env.MQTT_SHARE_GROUP, sessionExpiryMs: env.MQTT_SESSION_EXPIRY },
-        { ingest, metrics, logger, onSensorOffline: async (sensorId) => bus.publish({ type: "sensor-offline", sensorId }), flushWrites: () => writer.flush() },
-      );
+      const brokerOptions = { url: env.MQTT_URL, username: env.MQTT_USERNAME, password: env.MQTT_PASSWORD, clientId: env.MQTT_CLIENT_ID, shareGroup: env.MQTT_SHARE_GROUP, sessionExpiryMs: env.MQTT_SESSION_EXPIRY };
+      const brokerDeps: ExternalBrokerDeps = { ingest, metrics, logger, onSensorOffline: async (sensorId) => bus.publish({ type: "sensor-offline", sensorId }), flushWrites: () => void writer.flush() };
+      const external = await connectExternalBroker(brokerOptions, brokerDeps);
       broker = external;
+      if (isPostgres(dataSource)) {
+        // Several instances: each holds a lease on its own broker session while alive; the engine's
+        // instance drains the session of one that stopped, so its share of the readings goes on.
+        sessionLease = new Lease(dataSource, { name: sessionLeaseName(external.clientId), holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: leaseRenewMs }, logger, async () => {}, async () => {});
+        await sessionLease.start();
+        const sessions = new SessionReaper(dataSource, instanceId, (clientId) => drainSession({ ...brokerOptions, clientId }, brokerDeps), logger);
+        reaper = sessions;
+        reapTimer = setInterval(() => {
+          if (engine.isRunning) void sessions.sweep();
+        }, leaseRenewMs);
+        reapTimer.unref();
+      }
       brokerUrl = external.url;
       brokerPort = Number(new URL(external.url).port || (external.url.startsWith("mqtts:") ? 8883 : 1883));
     } else {

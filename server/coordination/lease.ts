@@ -3,6 +3,11 @@ import { isPostgres } from "../db/data-source.js";
 import { LeaderLeaseEntity } from "../db/entities/leader-lease.entity.js";
 import type { Logger } from "../lib/logger.js";
 
+/** "Now" in epoch milliseconds as SQL: the database's clock on PostgreSQL (shared by all instances), this process's on SQLite (one instance). */
+export function databaseNowSql(dataSource: DataSource): string {
+  return isPostgres(dataSource) ? "(EXTRACT(EPOCH FROM clock_timestamp()) * 1000)::bigint" : String(Date.now());
+}
+
 export interface LeaseOptions {
   /** The duty's name (the row's key). */
   name: string;
@@ -78,7 +83,7 @@ export class Lease {
 
   /** One conditional UPDATE: take the row when it has expired, extend it when it is ours. */
   private async renew(): Promise<boolean> {
-    const now = isPostgres(this.dataSource) ? "(EXTRACT(EPOCH FROM clock_timestamp()) * 1000)::bigint" : String(Date.now());
+    const now = databaseNowSql(this.dataSource);
     const result = await this.dataSource
       .createQueryBuilder()
       .update(LeaderLeaseEntity)

@@ -59,24 +59,20 @@ const REFUSED_SIGN_IN = new Set([134, 135, 138, 140]);
  * the next one. mqtt.js handles one incoming packet at a time and waits for that callback before
  * the next, so messages are processed in order, each held until its batch commits.
  */
-export async function connectExternalBroker(options: ExternalBrokerOptions, deps: ExternalBrokerDeps): Promise<ExternalBroker> {
-  const { ingest, metrics, logger } = deps;
+/** The broker's address without credentials, and the credentials (MQTT_USERNAME / MQTT_PASSWORD win over the URL's). */
+function brokerAddress(options: ExternalBrokerOptions): { url: string; username?: string; password?: string } {
   const given = new URL(options.url);
   const username = options.username ?? (given.username ? decodeURIComponent(given.username) : undefined);
   const password = options.password ?? (given.password ? decodeURIComponent(given.password) : undefined);
   given.username = "";
   given.password = "";
-  const url = given.toString().replace(/\/$/, "");
-  const clientId = options.clientId ?? "benchwarden";
-  const filters = sharedSensorFilters(options.shareGroup);
+  return { url: given.toString().replace(/\/$/, ""), username, password };
+}
 
-  /** Bumped on every new connection: a PUBACK belongs to the connection its message came on. */
-  let connection = 0;
-  let subscribed = false;
-  let closing = false;
-  const inFlight = new Set<Promise<void>>();
-
-  const handle = async (topic: string, payload: Buffer): Promise<void> => {
+/** What one message on the sensor topics does: readings to ingest, a last will to the engine. */
+function messageHandler(deps: ExternalBrokerDeps): (topic: string, payload: Buffer) => Promise<void> {
+  const { ingest, metrics, logger } = deps;
+  return async (topic, payload) => {
     const parsed = parseSensorTopic(topic);
     if (!parsed) {
       metrics.mqttRefused.inc({ reason: "foreign-topic" });
@@ -93,6 +89,20 @@ export async function connectExternalBroker(options: ExternalBrokerOptions, deps
     // The broker's ACL lets a sensor publish only under its own id, so the topic names the sender.
     await ingest(parsed.sensorId, payload);
   };
+}
+
+export async function connectExternalBroker(options: ExternalBrokerOptions, deps: ExternalBrokerDeps): Promise<ExternalBroker> {
+  const { logger } = deps;
+  const { url, username, password } = brokerAddress(options);
+  const clientId = options.clientId ?? "benchwarden";
+  const filters = sharedSensorFilters(options.shareGroup);
+
+  /** Bumped on every new connection: a PUBACK belongs to the connection its message came on. */
+  let connection = 0;
+  let subscribed = false;
+  let closing = false;
+  const inFlight = new Set<Promise<void>>();
+  const handle = messageHandler(deps);
 
   const clientOptions: IClientOptions = {
     protocolVersion: 5,
@@ -214,4 +224,89 @@ export async function connectExternalBroker(options: ExternalBrokerOptions, deps
         logger.info({ url }, "disconnected from the MQTT broker");
       })()),
   };
+}
+
+export interface DrainedSession {
+  /** The broker still held the session (false: it had expired or was ended before). */
+  sessionPresent: boolean;
+  /** Messages taken from it and acknowledged after their commit. */
+  messages: number;
+  /** Its instance came back and took its session over before the drain finished. */
+  takenBack: boolean;
+  /** Every message stored and the session ended (false: left for another attempt). */
+  ended: boolean;
+}
+
+/**
+ * Takes over the broker session of another server instance that has died, stores and acknowledges
+ * (after commit) what the broker queued for it, and ends the session. A broker deals a shared
+ * subscription's messages to every session in the group, connected or not (mosquitto 2.0), so
+ * until then a dead instance's share of the fleet's readings would wait for it.
+ *
+ * The session first leaves the group (UNSUBSCRIBE), so nothing new is dealt to it; once nothing has
+ * arrived for `quietMs` and every message is committed, DISCONNECT with a session expiry of 0 ends
+ * it. If the instance comes back meanwhile, the broker gives it its session and closes this
+ * connection (session taken over); what was not yet acknowledged here goes to it.
+ */
+export async function drainSession(
+  options: ExternalBrokerOptions & { clientId: string; quietMs?: number; maxMs?: number },
+  deps: ExternalBrokerDeps,
+): Promise<DrainedSession> {
+  const { url, username, password } = brokerAddress(options);
+  const filters = sharedSensorFilters(options.shareGroup);
+  const handle = messageHandler(deps);
+  const inFlight = new Set<Promise<void>>();
+  let messages = 0;
+  let lastMessageAtMs = Date.now();
+  let failed = false;
+  const client = mqtt.connect(url, {
+    protocolVersion: 5,
+    clientId: options.clientId,
+    clean: false,
+    properties: { sessionExpiryInterval: Math.min(0xffffffff, Math.round(options.sessionExpiryMs / 1000)) },
+    username,
+    password,
+    reconnectPeriod: 0,
+    connectTimeout: 10_000,
+    resubscribe: false,
+    customHandleAcks: (topic, payload, _packet, ack) => {
+      lastMessageAtMs = Date.now();
+      const work = handle(topic, payload).then(
+        () => {
+          messages++;
+          if (client.connected) ack(0);
+        },
+        (err: unknown) => {
+          // Not acknowledged: it stays in the session, which is then not ended.
+          failed = true;
+          deps.logger.error({ err, topic }, "message of a drained session not stored");
+        },
+      );
+      inFlight.add(work);
+      void work.finally(() => inFlight.delete(work));
+    },
+  });
+  client.on("error", (err) => deps.logger.warn({ clientId: options.clientId, err: err.message }, "draining another instance's MQTT session"));
+  const connack = await new Promise<{ sessionPresent: boolean } | null>((resolve) => {
+    client.once("connect", (packet) => resolve({ sessionPresent: packet.sessionPresent }));
+    client.once("close", () => resolve(null));
+  });
+  if (!connack) {
+    client.end(true);
+    return { sessionPresent: false, messages: 0, takenBack: false, ended: false };
+  }
+  let closed = false;
+  client.once("close", () => (closed = true));
+  await client.unsubscribeAsync([filters.readings, filters.status]).catch(() => undefined);
+  const deadline = Date.now() + (options.maxMs ?? 120_000);
+  const quietMs = options.quietMs ?? 1500;
+  while (!closed && Date.now() < deadline && (inFlight.size > 0 || Date.now() - lastMessageAtMs < quietMs)) {
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  await Promise.allSettled([...inFlight]);
+  if (closed) return { sessionPresent: connack.sessionPresent, messages, takenBack: true, ended: false };
+  // Only a session fully stored and gone quiet is ended; otherwise it is left for the next attempt.
+  const end = !failed && inFlight.size === 0 && Date.now() - lastMessageAtMs >= quietMs;
+  await client.endAsync(false, end ? { reasonCode: 0, properties: { sessionExpiryInterval: 0 } } : {});
+  return { sessionPresent: connack.sessionPresent, messages, takenBack: false, ended: end };
 }

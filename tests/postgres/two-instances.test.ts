@@ -239,16 +239,30 @@ describe("two instances on PostgreSQL behind mosquitto", () => {
         await until("second alert raised", () => raisedFor(alertProbes[1]!.benchId), 20_000);
         await until("second alert mailed", async () => mails.length > firstMails.length, 20_000);
 
-        // 5. The killed instance comes back (as its supervisor would restart it) and takes the
-        // readings its broker session kept; every reading is then stored exactly once.
+        // 5. The new leader drained the killed instance's broker session (the broker kept dealing
+        // that session a share of the readings): every reading is stored exactly once, without
+        // waiting for the killed instance to come back.
         expect(await done).toBe(TOTAL);
-        const restarted = await startInstance(leader.name, leader.httpPort, instanceEnv(leader.name, leader.httpPort, databaseUrl, relayUrl));
-        const final = await until("every reading stored", async () => {
-          const s = await stored();
-          return s.n >= TOTAL && s;
-        }, 60_000);
+        const final = await until(
+          "every reading stored",
+          async () => {
+            const s = await stored();
+            return s.n >= TOTAL && s;
+          },
+          60_000,
+        );
         expect(final).toEqual({ n: TOTAL, uniq: TOTAL });
-        // The new leader kept the engine; the restarted instance did not take it back.
+
+        // The killed instance comes back (as its supervisor would restart it), takes its share of
+        // new readings again, and does not take the engine back.
+        const restarted = await startInstance(leader.name, leader.httpPort, instanceEnv(leader.name, leader.httpPort, databaseUrl, relayUrl));
+        const probe = credentials[0]!;
+        const client = await mqtt.connectAsync(broker.url, { username: probe.id, password: probe.secret, clientId: `after-${probe.id}` });
+        for (let i = 0; i < 20; i++) {
+          await client.publishAsync(`benchwarden/v1/sensors/${probe.id}/readings`, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 22, t: Date.now() / 1000 + i / 1000 }]), { qos: 1 });
+        }
+        await client.endAsync();
+        await until("the restarted instance stores its share", async () => ((await metric(restarted, "benchwarden_readings_stored_total")) ?? 0) > 0, 15_000);
         expect(await metric(restarted, "benchwarden_alert_engine_running")).toBe(0);
 
         // 6. No mail twice: the first alert's mail went out once, before the kill, and the new

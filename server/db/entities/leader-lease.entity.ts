@@ -16,7 +16,7 @@ export const LeaderLeaseEntity = new EntitySchema<LeaderLease>({
   name: "LeaderLease",
   tableName: "leader_lease",
   columns: {
-    name: { type: "varchar", primary: true, length: 32 },
+    name: { type: "varchar", primary: true, length: 160 },
     holder: { type: "varchar", length: 200 },
     expiresAtMs: { type: "integer", name: "expires_at_ms" },
     term: { type: "integer" },

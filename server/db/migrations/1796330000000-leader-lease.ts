@@ -5,7 +5,7 @@ export class LeaderLease1796330000000 implements MigrationInterface {
   name = "LeaderLease1796330000000";
 
   public async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`CREATE TABLE "leader_lease" ("name" varchar(32) PRIMARY KEY NOT NULL, "holder" varchar(200) NOT NULL, "expires_at_ms" integer NOT NULL, "term" integer NOT NULL)`);
+    await queryRunner.query(`CREATE TABLE "leader_lease" ("name" varchar(160) PRIMARY KEY NOT NULL, "holder" varchar(200) NOT NULL, "expires_at_ms" integer NOT NULL, "term" integer NOT NULL)`);
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {
