@@ -102,7 +102,7 @@ async function run(instanceCount: number): Promise<{ instances: number; readings
     await ds.destroy();
     const credentialsPath = join(dir, "load-sensors.json");
     writeFileSync(credentialsPath, JSON.stringify(load));
-    const exported = runExport({ ...envs[0]!, LOG_LEVEL: "silent" }, ["--out-dir", broker.dir, "--secrets", credentialsPath]);
+    const exported = runExport({ ...envs[0]!, LOG_LEVEL: "silent" }, ["--out-dir", broker.dir, "--secrets", join(dir, "demo-sensors.json"), "--secrets", credentialsPath]);
     if (exported.status !== 0) throw new Error(`export failed: ${exported.stderr}`);
     await broker.reload();
 

@@ -51,7 +51,7 @@ import { ExportsService } from "./modules/exports/exports.service.js";
 import { ZonesService } from "./modules/zones/zones.service.js";
 import { createPropagation, photoDirFor } from "./modules/batches/propagation.js";
 import { startBroker, type EmbeddedBroker } from "./mqtt/broker.js";
-import { connectExternalBroker, drainSession, type ExternalBroker, type ExternalBrokerDeps } from "./mqtt/external-broker.js";
+import { connectExternalSubscribers, drainSession, type ExternalBroker, type ExternalBrokerDeps } from "./mqtt/external-broker.js";
 import { createIngest } from "./mqtt/ingest.js";
 
 export const PROJECT_ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
@@ -342,7 +342,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
   );
   // Exactly one instance runs the alert engine and sends the mail; another takes over when it dies.
   const leaseRenewMs = Math.max(500, Math.floor(env.LEADER_LEASE_TTL / 5));
-  let sessionLease: Lease | null = null;
+  const sessionLeases: Lease[] = [];
   let reaper: SessionReaper | null = null;
   let reapTimer: NodeJS.Timeout | null = null;
   const lease = new Lease(
@@ -400,7 +400,7 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       if (reapTimer) clearInterval(reapTimer);
       await reaper?.stop();
       if (broker) await broker.close();
-      await sessionLease?.stop();
+      await Promise.all(sessionLeases.map((l) => l.stop()));
       await writer.close();
       await passRunning?.catch(() => undefined);
       await lease.stop();
@@ -424,13 +424,16 @@ export async function start(env: Env, options: StartOptions = {}): Promise<Runni
       // exported password file is reloaded (docs/mosquitto.md); ingest refuses a disabled one now.
       const brokerOptions = { url: env.MQTT_URL, username: env.MQTT_USERNAME, password: env.MQTT_PASSWORD, clientId: env.MQTT_CLIENT_ID, shareGroup: env.MQTT_SHARE_GROUP, sessionExpiryMs: env.MQTT_SESSION_EXPIRY };
       const brokerDeps: ExternalBrokerDeps = { ingest, metrics, logger, onSensorOffline: async (sensorId) => bus.publish({ type: "sensor-offline", sensorId }), flushWrites: () => void writer.flush() };
-      const external = await connectExternalBroker(brokerOptions, brokerDeps);
+      const external = await connectExternalSubscribers(brokerOptions, brokerDeps, env.MQTT_SUBSCRIBERS);
       broker = external;
       if (isPostgres(dataSource)) {
         // Several instances: each holds a lease on its own broker session while alive; the engine's
         // instance drains the session of one that stopped, so its share of the readings goes on.
-        sessionLease = new Lease(dataSource, { name: sessionLeaseName(external.clientId), holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: leaseRenewMs }, logger, async () => {}, async () => {});
-        await sessionLease.start();
+        for (const clientId of external.clientIds) {
+          const own = new Lease(dataSource, { name: sessionLeaseName(clientId), holder: instanceId, ttlMs: env.LEADER_LEASE_TTL, renewEveryMs: leaseRenewMs }, logger, async () => {}, async () => {});
+          await own.start();
+          sessionLeases.push(own);
+        }
         const sessions = new SessionReaper(dataSource, instanceId, (clientId) => drainSession({ ...brokerOptions, clientId }, brokerDeps), logger);
         reaper = sessions;
         reapTimer = setInterval(() => {

@@ -34,7 +34,7 @@ export class Notifier {
   ) {}
 
   private async managers(): Promise<UserRecord[]> {
-    const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false } });
+    const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false }, order: { id: "ASC" } });
     const managers = users.filter((u) => u.role === "manager");
     return managers.length > 0 ? managers : users.filter((u) => u.role === "admin");
   }
@@ -43,7 +43,7 @@ export class Notifier {
   private async onDuty(zoneId: number, nowMs: number): Promise<{ users: UserRecord[]; fromRota: boolean }> {
     const shifts = await this.dataSource.getRepository(DutyShiftEntity).find();
     const ids = usersOnDuty(shifts, zoneId, nowMs, this.layout.timeZoneOfZone(zoneId));
-    const users = ids.length ? await this.dataSource.getRepository(UserEntity).find({ where: { id: In(ids), disabled: false } }) : [];
+    const users = ids.length ? await this.dataSource.getRepository(UserEntity).find({ where: { id: In(ids), disabled: false }, order: { id: "ASC" } }) : [];
     return users.length > 0 ? { users, fromRota: true } : { users: await this.managers(), fromRota: false };
   }
 
@@ -79,7 +79,7 @@ export class Notifier {
   private async queueGroup(zoneId: number, type: NoticeType, notices: AlertNoticeRecord[], nowMs: number): Promise<number> {
     await this.layout.reload();
     const ids = [...new Set(notices.map((n) => n.alertId))];
-    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { id: In(ids) }, order: { sinceMs: "ASC" } });
+    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { id: In(ids) }, order: { sinceMs: "ASC", id: "ASC" } });
     // Tell only what is still true: an alert acknowledged or cleared while its group waited is left out.
     const relevant = rows.filter((a) => (type === "cleared" ? a.phase === "cleared" : a.phase === "raised"));
     const alerts = relevant.map((a) => toAlertView(a, this.layout, this.windows));

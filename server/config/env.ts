@@ -42,6 +42,7 @@ export const envSchema = z.object({
   MQTT_USERNAME: z.string().min(1).optional().describe("User name the server signs in to the external broker with (overrides the one in MQTT_URL)"),
   MQTT_PASSWORD: z.string().min(1).optional().describe("Password the server signs in to the external broker with (overrides the one in MQTT_URL)"),
   MQTT_CLIENT_ID: z.string().min(1).max(128).optional().describe("Client id of this server instance at the external broker; keep it stable, its session holds the readings queued while the server is down (default benchwarden; each instance its own)"),
+  MQTT_SUBSCRIBERS: z.coerce.number().int().min(1).max(32).default(4).describe("Connections this instance keeps to the external broker, all in the shared subscription (client ids MQTT_CLIENT_ID, <id>-2 …): each holds one message until it is committed, so several let the writer commit several together"),
   MQTT_SHARE_GROUP: z.string().regex(/^[^/+#]+$/, "must not contain / + or #").default("benchwarden").describe("Shared-subscription group of the server instances at the external broker ($share/<group>/…)"),
   MQTT_SESSION_EXPIRY: duration("7d").describe("How long the external broker keeps this instance's session (and queues readings for it) while it is disconnected"),
   MQTT_MAX_PACKET_BYTES: z.coerce.number().int().min(1024).max(16 * 1024 * 1024).default(64 * 1024).describe("Largest MQTT packet a sensor may send; a bigger one closes its connection"),

@@ -25,4 +25,17 @@ describe("cluster event encoding", () => {
     expect(encodeEvent({ type: "alerts", alertIds: [3, 4] }).map(decodeEvent)).toEqual([{ type: "alerts", alertIds: [3, 4] }]);
     expect(encodeEvent({ type: "readings", rows: [] })).toEqual([]);
   });
+
+  it("marks every payload with the sender's origin first (so it can drop its own echo) and decodes without it", () => {
+    const rows: ReadingRow[] = Array.from({ length: 300 }, (_, i) => ({ sensorId: `probe-${i}`, benchId: i, quantity: "air.humidity", timeMs: 1_796_329_492_887 + i, value: i / 3 }));
+    for (const event of [{ type: "windows" } as const, { type: "readings", rows } as const]) {
+      const payloads = encodeEvent(event, "a1b2");
+      for (const p of payloads) {
+        expect(p.startsWith('{"o":"a1b2",')).toBe(true);
+        expect(Buffer.byteLength(p)).toBeLessThan(8000);
+      }
+      const back = payloads.map(decodeEvent);
+      expect(event.type === "readings" ? back.flatMap((e) => (e.type === "readings" ? e.rows : [])) : back).toEqual(event.type === "readings" ? rows : [event]);
+    }
+  });
 });

@@ -1,3 +1,4 @@
+import { randomBytes } from "node:crypto";
 import pg from "pg";
 import type { Quantity } from "../../shared/schemas/quantities.js";
 import type { Logger } from "../lib/logger.js";
@@ -60,13 +61,21 @@ const MAX_PAYLOAD_BYTES = 7_900;
 
 type ReadingTuple = [sensorId: string, benchId: number | null, quantity: Quantity, timeMs: number, value: number];
 
-/** Splits an event into payloads under the NOTIFY limit (only a batch of readings can be that large). */
-export function encodeEvent(event: ClusterEvent): string[] {
-  if (event.type !== "readings") return [JSON.stringify(event)];
+/** The start of every payload sent by `origin`: it comes first, so a listener knows its own echo without parsing it. */
+function originHead(origin: string): string {
+  return origin ? `{"o":${JSON.stringify(origin)},` : "{";
+}
+
+/**
+ * Splits an event into payloads under the NOTIFY limit (only a batch of readings can be that
+ * large), each marked with the sending bus's origin.
+ */
+export function encodeEvent(event: ClusterEvent, origin = ""): string[] {
+  if (event.type !== "readings") return [originHead(origin) + JSON.stringify(event).slice(1)];
   const payloads: string[] = [];
   let tuples: string[] = [];
   let bytes = 0;
-  const head = '{"type":"readings","r":[';
+  const head = `${originHead(origin)}"type":"readings","r":[`;
   for (const r of event.rows) {
     const tuple = JSON.stringify([r.sensorId, r.benchId, r.quantity, r.timeMs, r.value] satisfies ReadingTuple);
     const size = Buffer.byteLength(tuple) + 1;
@@ -83,7 +92,7 @@ export function encodeEvent(event: ClusterEvent): string[] {
 }
 
 export function decodeEvent(payload: string): ClusterEvent {
-  const parsed = JSON.parse(payload) as ClusterEvent | { type: "readings"; r: ReadingTuple[] };
+  const { o: _origin, ...parsed } = JSON.parse(payload) as (ClusterEvent | { type: "readings"; r: ReadingTuple[] }) & { o?: string };
   if (parsed.type === "readings" && "r" in parsed) {
     return { type: "readings", rows: parsed.r.map(([sensorId, benchId, quantity, timeMs, value]) => ({ sensorId, benchId, quantity, timeMs, value })) };
   }
@@ -91,8 +100,11 @@ export function decodeEvent(payload: string): ClusterEvent {
 }
 
 /**
- * Several instances on one PostgreSQL database: events go out with NOTIFY and come back to every
- * instance (this one too) through LISTEN on a connection of their own. NOTIFY delivers only to
+ * Several instances on one PostgreSQL database: events go out with NOTIFY and reach every other
+ * instance through LISTEN on a connection of their own. This instance's own events go straight to
+ * its handlers, synchronously as on SQLite, and their echo is dropped: once a reading is
+ * acknowledged, the engine here already has it (engine.idle() covers it), with no round trip through
+ * the database for every batch of readings. NOTIFY delivers only to
  * sessions listening at that moment, so after the listener reconnects it tells the handlers to
  * re-read their caches ("resync"); readings missed meanwhile are only missed by the live view
  * (the dashboard re-reads the latest values) and by the engine until the sensor's next reading.
@@ -103,6 +115,9 @@ export class PostgresEventBus implements EventBus {
   private closed = false;
   private reconnectTimer: NodeJS.Timeout | null = null;
   private sending: Promise<unknown> = Promise.resolve();
+  /** Marks this bus's payloads, so its listener can drop their echo. */
+  private readonly origin = randomBytes(8).toString("hex");
+  private readonly ownHead = originHead(this.origin);
 
   constructor(
     private readonly pool: pg.Pool,
@@ -119,6 +134,7 @@ export class PostgresEventBus implements EventBus {
     const client = new pg.Client({ connectionString: this.connectionString, application_name: "benchwarden-listener" });
     client.on("notification", (message) => {
       if (message.channel !== CHANNEL || !message.payload) return;
+      if (message.payload.startsWith(this.ownHead)) return; // handled when published
       let event: ClusterEvent;
       try {
         event = decodeEvent(message.payload);
@@ -154,9 +170,10 @@ export class PostgresEventBus implements EventBus {
     this.reconnectTimer = setTimeout(retry, 200);
   }
 
-  /** Queued in order: one statement carries every payload of the event. */
+  /** Handled here at once; sent to the others queued in order, one statement carrying every payload of the event. */
   publish(event: ClusterEvent): void {
-    const payloads = encodeEvent(event);
+    dispatch(this.handlers, event, this.logger);
+    const payloads = encodeEvent(event, this.origin);
     this.sending = this.sending
       .then(() => this.pool.query(`SELECT pg_notify($1, p) FROM unnest($2::text[]) AS p`, [CHANNEL, payloads]))
       .catch((err: unknown) => this.logger.warn({ err, type: event.type }, "could not tell the other instances"));

@@ -11,6 +11,15 @@ export function retryDelayMs(attempts: number, firstMs = 5000): number {
   return Math.min(5 * 60_000, firstMs * 2 ** Math.max(0, attempts - 1));
 }
 
+/** The outbox's subject column holds this many characters (PostgreSQL enforces it; SQLite would not). */
+export const MAX_SUBJECT_CHARS = 300;
+
+/** A subject longer than the column (long zone, bench and sensor names), cut with an ellipsis rather than refused. */
+export function fitSubject(subject: string): string {
+  const chars = [...subject];
+  return chars.length <= MAX_SUBJECT_CHARS ? subject : `${chars.slice(0, MAX_SUBJECT_CHARS - 1).join("")}…`;
+}
+
 export interface Mailer {
   /** Write a message to the outbox (in `tx` when given, so it commits with the change that caused it). */
   enqueue(mail: Omit<OutgoingMail, "messageId">, tx?: EntityManager): Promise<void>;
@@ -49,7 +58,7 @@ export class Outbox implements Mailer {
     await manager.getRepository(OutboxEntity).insert({
       messageId: `<${randomUUID()}@${this.options.domain}>`,
       toAddress: mail.to,
-      subject: mail.subject,
+      subject: fitSubject(mail.subject),
       text: mail.text,
       html: mail.html ?? null,
       createdAtMs: this.now(),

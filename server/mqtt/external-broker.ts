@@ -310,3 +310,30 @@ export async function drainSession(
   await client.endAsync(false, end ? { reasonCode: 0, properties: { sessionExpiryInterval: 0 } } : {});
   return { sessionPresent: connack.sessionPresent, messages, takenBack: false, ended: end };
 }
+
+/**
+ * `count` connections to the external broker, all members of the shared subscription: mqtt.js
+ * hands a connection its next message only after the previous one is acknowledged, i.e. committed,
+ * so one connection stores one message per transaction; several keep several messages in flight,
+ * and the batch writer commits them together. Client ids: MQTT_CLIENT_ID, then `<id>-2` … `<id>-<count>`.
+ */
+export async function connectExternalSubscribers(options: ExternalBrokerOptions, deps: ExternalBrokerDeps, count: number): Promise<ExternalBroker & { clientIds: string[] }> {
+  const base = options.clientId ?? "benchwarden";
+  const clientIds = Array.from({ length: count }, (_, i) => (i === 0 ? base : `${base}-${i + 1}`));
+  const connections: ExternalBroker[] = [];
+  try {
+    for (const clientId of clientIds) connections.push(await connectExternalBroker({ ...options, clientId }, deps));
+  } catch (err) {
+    await Promise.all(connections.map((c) => c.close()));
+    throw err;
+  }
+  return {
+    url: connections[0]!.url,
+    clientId: base,
+    clientIds,
+    isConnected: () => connections.every((c) => c.isConnected()),
+    close: async () => {
+      await Promise.all(connections.map((c) => c.close()));
+    },
+  };
+}

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdParamSchema, rowIdSchema } from "./ids.js";
 import { describeDurationS } from "../domain/duration.js";
 
 export const alertKindSchema = z.enum(["window", "condensation", "sensor-silent"]);
@@ -42,10 +43,10 @@ export type AlertView = z.infer<typeof alertSchema>;
 /** GET /api/alerts */
 export const alertsQuerySchema = z.object({
   status: z.enum(["open", "past", "all"]).default("open"),
-  zoneId: z.coerce.number().int().positive().optional(),
+  zoneId: rowIdParamSchema.optional(),
   kind: alertKindSchema.optional(),
   phase: alertPhaseSchema.optional(),
-  benchId: z.coerce.number().int().positive().optional(),
+  benchId: rowIdParamSchema.optional(),
   /** Alerts that were open at some time in [fromMs, toMs) (ms since 1970). */
   fromMs: z.coerce.number().int().min(0).optional(),
   toMs: z.coerce.number().int().min(0).optional(),
@@ -78,8 +79,8 @@ const minuteOfDay = z.number().int().min(0).max(24 * 60);
 /** A duty shift, as the rota page edits it. */
 export const dutyShiftInputSchema = z
   .object({
-    zoneId: z.number().int().positive().nullable(),
-    userId: z.number().int().positive(),
+    zoneId: rowIdSchema.nullable(),
+    userId: rowIdSchema,
     /** Bit 0 = Sunday … bit 6 = Saturday. */
     weekdays: z.number().int().min(1, "Choose at least one day").max(127),
     startMinute: minuteOfDay,

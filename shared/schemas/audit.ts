@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdParamSchema } from "./ids.js";
 import { roleSchema } from "./auth.js";
 import { windowedQuantitySchema } from "./windows.js";
 
@@ -107,19 +108,17 @@ export const auditEntrySchema = z.object({
 });
 export type AuditEntry = z.infer<typeof auditEntrySchema>;
 
-const positiveIntParam = z.coerce.number().int().positive();
-
 /**
  * GET /api/audit (and GET /api/zones/:id/audit): newest first. Filters combine; `zoneId` also
  * matches entries that moved something out of the zone. Page with `before` = the previous page's
  * `nextBefore`.
  */
 export const auditQuerySchema = z.object({
-  zoneId: positiveIntParam.optional(),
-  siteId: positiveIntParam.optional(),
-  benchId: positiveIntParam.optional(),
+  zoneId: rowIdParamSchema.optional(),
+  siteId: rowIdParamSchema.optional(),
+  benchId: rowIdParamSchema.optional(),
   entityType: auditEntityTypeSchema.optional(),
-  before: positiveIntParam.optional(),
+  before: rowIdParamSchema.optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdParamSchema, rowIdSchema } from "./ids.js";
 import { BATCH_STAGES, calendarDayNumber, type BatchStage } from "../domain/batch.js";
 import { windowedQuantitySchema } from "./windows.js";
 
@@ -15,7 +16,7 @@ import { windowedQuantitySchema } from "./windows.js";
  * zod path, e.g. "countStuck" or "hormoneProduct".
  */
 
-const idSchema = z.number().int().positive();
+const idSchema = rowIdSchema;
 
 /** A calendar date "YYYY-MM-DD" that exists (2025-02-30 is refused). */
 export const calendarDateSchema = z
@@ -275,9 +276,9 @@ export type BatchResponse = z.infer<typeof batchResponseSchema>;
  */
 export const batchesQuerySchema = z.object({
   status: z.enum(["open", "closed", "all"]).default("open"),
-  siteId: z.coerce.number().int().positive().optional(),
-  zoneId: z.coerce.number().int().positive().optional(),
-  benchId: z.coerce.number().int().positive().optional(),
+  siteId: rowIdParamSchema.optional(),
+  zoneId: rowIdParamSchema.optional(),
+  benchId: rowIdParamSchema.optional(),
   variety: z.string().trim().min(1).max(120).optional(),
   stuckFrom: calendarDateSchema.optional(),
   stuckTo: calendarDateSchema.optional(),
@@ -415,8 +416,8 @@ export const MAX_OBSERVATIONS_RANGE_MS = 400 * 86_400_000;
  */
 export const benchObservationsQuerySchema = z
   .object({
-    benchId: z.coerce.number().int().positive().optional(),
-    zoneId: z.coerce.number().int().positive().optional(),
+    benchId: rowIdParamSchema.optional(),
+    zoneId: rowIdParamSchema.optional(),
     fromMs: z.coerce.number({ error: "Give fromMs, ms since 1970" }).int().min(0),
     toMs: z.coerce.number({ error: "Give toMs, ms since 1970" }).int().min(0),
     limit: z.coerce.number().int().min(1).max(2000).default(1000),
@@ -469,9 +470,9 @@ export type UploadPhotosResponse = z.infer<typeof uploadPhotosResponseSchema>;
  */
 export const reportQuerySchema = z.object({
   status: z.enum(["open", "closed", "all"]).default("all"),
-  siteId: z.coerce.number().int().positive().optional(),
-  zoneId: z.coerce.number().int().positive().optional(),
-  benchId: z.coerce.number().int().positive().optional(),
+  siteId: rowIdParamSchema.optional(),
+  zoneId: rowIdParamSchema.optional(),
+  benchId: rowIdParamSchema.optional(),
   variety: z.string().trim().min(1).max(120).optional(),
   stuckFrom: calendarDateSchema.optional(),
   stuckTo: calendarDateSchema.optional(),
@@ -579,7 +580,7 @@ export const REPORT_SAMPLES_PER_SERIES = 5000;
  */
 export const batchesCsvQuerySchema = reportQuerySchema;
 export const observationsCsvQuerySchema = reportQuerySchema.extend({
-  batchId: z.coerce.number().int().positive().optional(),
+  batchId: rowIdParamSchema.optional(),
   observedFrom: calendarDateSchema.optional(),
   observedTo: calendarDateSchema.optional(),
 });

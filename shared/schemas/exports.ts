@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdParamSchema } from "./ids.js";
 import { temperatureUnitSchema } from "./auth.js";
 
 /** Roll-up intervals of a readings export; "raw" is every stored reading. */
@@ -18,7 +19,6 @@ export const EXPORT_INTERVAL_MS: Record<Exclude<ExportInterval, "raw">, number> 
 export const MAX_RAW_EXPORT_MS = 31 * 24 * 3600 * 1000;
 export const MAX_ROLLUP_EXPORT_MS = 400 * 24 * 3600 * 1000;
 
-const positiveInt = z.coerce.number().int().positive();
 /** ISO 8601 or milliseconds since 1970. */
 const instant = z.union([z.coerce.number().int().positive(), z.iso.datetime({ offset: true }), z.iso.date()]).transform((v) => (typeof v === "number" ? v : Date.parse(v)));
 
@@ -39,8 +39,8 @@ const instant = z.union([z.coerce.number().int().positive(), z.iso.datetime({ of
  */
 export const readingsExportQuerySchema = z
   .object({
-    benchId: positiveInt.optional(),
-    zoneId: positiveInt.optional(),
+    benchId: rowIdParamSchema.optional(),
+    zoneId: rowIdParamSchema.optional(),
     from: instant.optional(),
     to: instant.optional(),
     interval: exportIntervalSchema.default("raw"),

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdSchema } from "./ids.js";
 import { sensorKindSchema } from "./quantities.js";
 
 /*
@@ -10,7 +11,7 @@ import { sensorKindSchema } from "./quantities.js";
  * move, order, archive) — admin and manager; reading — every signed-in role.
  */
 
-const idSchema = z.number().int().positive();
+const idSchema = rowIdSchema;
 
 export const layoutNameSchema = z.string().trim().min(1, "Enter a name").max(120, "Use at most 120 characters");
 

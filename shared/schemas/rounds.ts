@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdParamSchema, rowIdSchema } from "./ids.js";
 import { alertSchema } from "./alerts.js";
 import { batchStageSchema, batchTallySchema, observationFlagSchema, observationSummarySchema, observationViewSchema } from "./batches.js";
 import { windowedQuantitySchema } from "./windows.js";
@@ -28,7 +29,7 @@ import { windowedQuantitySchema } from "./windows.js";
  * Values are stored units (°C, % RH, ratio 0–1 for moisture, kPa for VPD); instants ms since 1970.
  */
 
-const idSchema = z.number().int().positive();
+const idSchema = rowIdSchema;
 
 /** A round still in progress after this long is abandoned when its scope is started again. */
 export const ROUND_STALE_AFTER_MS = 12 * 3600 * 1000;
@@ -101,9 +102,9 @@ export type RoundResponse = z.infer<typeof roundResponseSchema>;
 /** GET /api/rounds — newest first. */
 export const roundsQuerySchema = z.object({
   status: z.enum(["in-progress", "finished", "abandoned", "all"]).default("all"),
-  siteId: z.coerce.number().int().positive().optional(),
+  siteId: rowIdParamSchema.optional(),
   /** Rounds of this zone, and whole-site rounds that covered it. */
-  zoneId: z.coerce.number().int().positive().optional(),
+  zoneId: rowIdParamSchema.optional(),
   limit: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type RoundsQuery = z.infer<typeof roundsQuerySchema>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { rowIdSchema } from "./ids.js";
 import { CALIBRATION_GAIN_RANGE, MAX_CALIBRATION_OFFSET } from "../domain/calibration.js";
 import { sensorKindSchema, type WindowedQuantity } from "./quantities.js";
 
@@ -67,14 +68,14 @@ export const sensorsResponseSchema = z.object({ sensors: z.array(sensorSchema) }
 export const registerSensorInputSchema = z.object({
   id: sensorIdSchema,
   kind: sensorKindSchema,
-  benchId: z.number().int().positive().nullable(),
+  benchId: rowIdSchema.nullable(),
 });
 export type RegisterSensorInput = z.infer<typeof registerSensorInputSchema>;
 
 /** PATCH /api/sensors/:id (admin) */
 export const updateSensorInputSchema = z
   .object({
-    benchId: z.number().int().positive().nullable().optional(),
+    benchId: rowIdSchema.nullable().optional(),
     disabled: z.boolean().optional(),
     /** Replaces the whole calibration; {} reads every quantity as measured. */
     calibration: sensorCalibrationSchema.optional(),

@@ -5,7 +5,8 @@ import { problemSchema } from "../../shared/api-error.js";
 import { benchReadingsResponseSchema } from "../../shared/schemas/readings.js";
 import { readingsEventSchema } from "../../shared/schemas/stream.js";
 import { zonesResponseSchema } from "../../shared/schemas/zones.js";
-import { rawDatabase } from "../../server/db/data-source.js";
+import pg from "pg";
+import { isPostgres, rawDatabase } from "../../server/db/data-source.js";
 import { connectSensor, signIn, startTestServer, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
@@ -19,6 +20,28 @@ beforeAll(async () => {
 afterAll(async () => {
   await server.cleanup();
 });
+
+/**
+ * The server's database stops answering: SQLite's handle is closed; a PostgreSQL database refuses
+ * new connections and its open ones are ended. Returns what brings it back (so the server can stop).
+ */
+async function takeDatabaseDown(target: TestServer): Promise<() => Promise<void>> {
+  if (!isPostgres(target.dataSource)) {
+    rawDatabase(target.dataSource).close();
+    return async () => {};
+  }
+  const url = new URL(target.databaseUrl!);
+  const name = url.pathname.slice(1);
+  url.pathname = "/postgres";
+  const admin = new pg.Client({ connectionString: url.toString() });
+  await admin.connect();
+  await admin.query(`ALTER DATABASE "${name}" ALLOW_CONNECTIONS false`);
+  await admin.query("SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = $1", [name]);
+  return async () => {
+    await admin.query(`ALTER DATABASE "${name}" ALLOW_CONNECTIONS true`);
+    await admin.end();
+  };
+}
 
 describe("HTTP API", () => {
   it("lists the demo nursery's three zones and twelve benches with their windows", async () => {
@@ -72,6 +95,17 @@ describe("HTTP API", () => {
     expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("bench-not-found");
   });
 
+  it("when an id is past 32 bits (no row can have it), then it answers 400 naming the field, on either database", async () => {
+    // PostgreSQL's integer ids: compared with such a number, the query itself fails (it was a 500 there).
+    for (const id of [2 ** 31, Number.MAX_SAFE_INTEGER]) {
+      const res = await request(server.baseUrl).get(`/api/benches/${id}/readings`).auth(token, { type: "bearer" }).expect(400);
+      expect(problemSchema.parse(JSON.parse(res.text)).errors?.[0]?.path).toBe("benchId");
+      const alerts = await request(server.baseUrl).get(`/api/alerts?benchId=${id}`).auth(token, { type: "bearer" }).expect(400);
+      expect(problemSchema.parse(JSON.parse(alerts.text)).errors?.[0]?.path).toBe("benchId");
+    }
+    await request(server.baseUrl).get(`/api/benches/${2 ** 31 - 1}/readings`).auth(token, { type: "bearer" }).expect(404);
+  });
+
   it("when the API path is unknown, then it answers 404 problem details, not the app page", async () => {
     const res = await request(server.baseUrl).get("/api/nothing-here").auth(token, { type: "bearer" }).expect(404);
     expect(problemSchema.parse(JSON.parse(res.text)).code).toBe("route-not-found");
@@ -104,11 +138,13 @@ describe("HTTP API", () => {
 
   it("/healthz fails when the database is down", async () => {
     const other = await startTestServer();
+    let bringBack = async () => {};
     try {
-      rawDatabase(other.dataSource).close();
+      bringBack = await takeDatabaseDown(other);
       const res = await request(other.baseUrl).get("/healthz").expect(503);
       expect(res.body).toEqual({ status: "unavailable", database: "not answering", broker: "ok" });
     } finally {
+      await bringBack();
       await other.cleanup();
     }
   });

@@ -14,9 +14,9 @@ import {
   type BatchView,
 } from "../../shared/schemas/batches.js";
 import { layoutResponseSchema, type LayoutResponse } from "../../shared/schemas/layout.js";
-import { rawDatabase } from "../../server/db/data-source.js";
 import { ObservationEntity } from "../../server/db/entities/observation.entity.js";
 import { connectSensor, signIn, startTestServer, type TestServer } from "../support/test-server.js";
+import { insertReadings } from "../support/twin-databases.js";
 
 /** Batches, observations and the strike-rate reports (issue 6 §1, §2, §6). */
 let server: TestServer;
@@ -271,10 +271,10 @@ describe("strike-rate reports and CSV", () => {
     const three = bench(1, 2);
     const probe = server.credentials.find((c) => c.benchId === three.id && c.kind === "combined")!;
     const startMs = Math.floor((Date.now() - 9 * 3600_000) / 60_000) * 60_000;
-    const insert = rawDatabase(server.dataSource).prepare("INSERT INTO reading (sensor_id, quantity, time_ms, value, bench_id) VALUES (?, 'air.temperature', ?, ?, ?)");
-    rawDatabase(server.dataSource).transaction(() => {
-      for (let i = 0; i < 6000; i++) insert.run(probe.id, startMs + i * 5000, i < 3000 ? 23 : 18, three.id);
-    })();
+    await insertReadings(
+      server.dataSource,
+      Array.from({ length: 6000 }, (_, i) => ({ sensorId: probe.id, quantity: "air.temperature", timeMs: startMs + i * 5000, value: i < 3000 ? 23 : 18, benchId: three.id })),
+    );
     const c = await createBatch({ variety: "Wonderful", stuckOn: yesterday, countStuck: 10, benchId: three.id });
     const report = strikeRateReportSchema.parse((await api().get(`/api/reports/strike-rates?benchId=${three.id}`).auth(viewer, { type: "bearer" }).expect(200)).body);
     const row = report.batches.find((r) => r.batchId === c.id)!;

@@ -7,8 +7,8 @@ import { batchResponseSchema, benchObservationsResponseSchema, type BatchView } 
 import { benchViewSchema, layoutResponseSchema, type LayoutResponse } from "../../shared/schemas/layout.js";
 import type { Quantity } from "../../shared/schemas/quantities.js";
 import { MAX_SERIES_POINTS, benchReadingsResponseSchema, zoneReadingsResponseSchema, type BenchReadingsResponse } from "../../shared/schemas/readings.js";
-import { rawDatabase } from "../../server/db/data-source.js";
-import { ReadingsRepository, type ReadingRow } from "../../server/modules/readings/readings.repository.js";
+import { createReadingStore } from "../../server/modules/readings/reading-store.js";
+import type { ReadingRow } from "../../server/modules/readings/readings.repository.js";
 import { connectSensor, signIn, startTestServer, type TestServer } from "../support/test-server.js";
 
 /**
@@ -74,7 +74,7 @@ describe("a zone's series in one request", () => {
     // A month of one-minute readings on every bench of the zone, written through the ingest's own
     // storage call (readings and their rollups in one transaction per batch, as ingest does; the
     // broker refuses readings more than 7 days old).
-    const repository = new ReadingsRepository(rawDatabase(server.dataSource));
+    const repository = createReadingStore(server.dataSource);
     const quantities: Record<string, Quantity[]> = {
       air: ["air.temperature", "air.humidity"],
       medium: ["medium.temperature", "medium.moisture"],
@@ -90,11 +90,11 @@ describe("a zone's series in one request", () => {
         for (const quantity of quantities[probe.kind]!) rows.push({ sensorId: probe.id, benchId: probe.benchId, quantity, timeMs: t, value: base[quantity]! + swing[quantity]! * day + i * 0.1 });
       }
       if (rows.length >= 5000) {
-        repository.insertReadings(rows);
+        await repository.insertReadings(rows);
         rows = [];
       }
     }
-    repository.insertReadings(rows);
+    await repository.insertReadings(rows);
     // The last minutes through the broker, as a probe sends them (the raw end of the range).
     const probe = probes.find((p) => p.kind === "combined")!;
     const client = await connectSensor(server, probe);

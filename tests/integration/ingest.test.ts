@@ -2,8 +2,8 @@ import type { MqttClient } from "mqtt";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { zonesResponseSchema, type BenchSummary } from "../../shared/schemas/zones.js";
-import { rawDatabase } from "../../server/db/data-source.js";
 import { connectSensor, signIn, startTestServer, waitFor, type TestServer } from "../support/test-server.js";
+import { query } from "../support/twin-databases.js";
 
 let server: TestServer;
 let token: string;
@@ -32,9 +32,8 @@ async function benchSummary(benchId: number): Promise<BenchSummary> {
   return zones.flatMap((z) => z.benches).find((b) => b.id === benchId)!;
 }
 
-function storedCount(sensorId: string): number {
-  const db = rawDatabase(server.dataSource);
-  return (db.prepare("SELECT COUNT(*) AS n FROM reading WHERE sensor_id = ?").get(sensorId) as { n: number }).n;
+async function storedCount(sensorId: string): Promise<number> {
+  return (await query<{ n: number }>(server.dataSource, "SELECT COUNT(*) AS n FROM reading WHERE sensor_id = @sensorId", { sensorId }))[0]!.n;
 }
 
 describe("MQTT ingest", () => {
@@ -59,7 +58,7 @@ describe("MQTT ingest", () => {
 
   it("when a QoS 1 publish is acknowledged, then the reading is already committed", async () => {
     const { credential, client } = await sensor("medium");
-    const before = storedCount(credential.id);
+    const before = await storedCount(credential.id);
     const t = Math.floor(Date.now() / 1000) - 30;
     await client.publishAsync(
       `benchwarden/v1/sensors/${credential.id}/readings`,
@@ -67,7 +66,7 @@ describe("MQTT ingest", () => {
       { qos: 1 },
     );
     // No waiting: the PUBACK itself means stored.
-    expect(storedCount(credential.id)).toBe(before + 2);
+    expect(await storedCount(credential.id)).toBe(before + 2);
   });
 
   it("when the same reading is sent twice, then it is stored once", async () => {
@@ -76,7 +75,7 @@ describe("MQTT ingest", () => {
     const topic = `benchwarden/v1/sensors/${credential.id}/readings`;
     await client.publishAsync(topic, pack, { qos: 1 });
     await client.publishAsync(topic, pack, { qos: 1 });
-    expect(storedCount(credential.id)).toBe(1);
+    expect(await storedCount(credential.id)).toBe(1);
     expect(server.metrics.readingsDuplicate.get()).toBeGreaterThanOrEqual(1);
   });
 
@@ -87,7 +86,7 @@ describe("MQTT ingest", () => {
     await client.publishAsync(topic, '[{"n":"air.temperature","v":', { qos: 1 });
     await client.publishAsync(topic, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 24.2, t: -1 }]), { qos: 1 });
     expect(server.metrics.readingsRejected.get({ reason: "malformed-json" })).toBe(rejectedBefore + 1);
-    expect(storedCount(credential.id)).toBe(1);
+    expect(await storedCount(credential.id)).toBe(1);
     const metrics = await request(server.baseUrl).get("/metrics").expect(200);
     expect(metrics.text).toMatch(/benchwarden_readings_rejected_total\{reason="malformed-json"\} [1-9]/);
   });
@@ -103,7 +102,7 @@ describe("MQTT ingest", () => {
       ]),
       { qos: 1 },
     );
-    expect(storedCount(credential.id)).toBe(2);
+    expect(await storedCount(credential.id)).toBe(2);
     expect(server.metrics.readingsRejected.get({ reason: "unit-not-accepted" })).toBeGreaterThanOrEqual(1);
   });
 
@@ -133,6 +132,6 @@ describe("sensor credentials", () => {
     const closed = new Promise<void>((r) => client.once("close", () => r()));
     client.publish(`benchwarden/v1/sensors/${other!.id}/readings`, JSON.stringify([{ n: "air.temperature", u: "Cel", v: 5 }]), { qos: 1 });
     await closed;
-    expect(storedCount(other!.id)).toBe(0);
+    expect(await storedCount(other!.id)).toBe(0);
   });
 });

@@ -1,8 +1,8 @@
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { rawDatabase } from "../../server/db/data-source.js";
 import { auditResponseSchema } from "../../shared/schemas/audit.js";
 import { sensorsResponseSchema } from "../../shared/schemas/sensors.js";
+import { query } from "../support/twin-databases.js";
 import { connectSensor, signIn, startTestServer, waitFor, type TestServer } from "../support/test-server.js";
 
 let server: TestServer;
@@ -19,10 +19,8 @@ afterAll(async () => {
 
 const api = () => request(server.baseUrl);
 
-function storedValue(sensorId: string, quantity: string, timeMs: number): number | undefined {
-  const row = rawDatabase(server.dataSource).prepare("SELECT value FROM reading WHERE sensor_id = ? AND quantity = ? AND time_ms = ?").get(sensorId, quantity, timeMs) as
-    | { value: number }
-    | undefined;
+async function storedValue(sensorId: string, quantity: string, timeMs: number): Promise<number | undefined> {
+  const [row] = await query<{ value: number }>(server.dataSource, "SELECT value FROM reading WHERE sensor_id = @sensorId AND quantity = @quantity AND time_ms = @timeMs", { sensorId, quantity, timeMs });
   return row?.value;
 }
 
@@ -52,11 +50,11 @@ describe("sensor calibration (offset and gain per quantity)", () => {
       { n: "battery", u: "%EL", v: 80 },
     ]);
     await waitFor(async () => storedValue(probe.id, "air.temperature", afterMs));
-    expect(storedValue(probe.id, "air.temperature", beforeMs)).toBe(22); // stored before: as measured
-    expect(storedValue(probe.id, "air.temperature", afterMs)).toBeCloseTo(21.6, 10);
-    expect(storedValue(probe.id, "medium.moisture", afterMs)).toBeCloseTo(1.1 * 0.4 + 0.02, 10);
-    expect(storedValue(probe.id, "air.humidity", afterMs)).toBe(70); // {0, 1} is no calibration
-    expect(storedValue(probe.id, "battery", afterMs)).toBe(80);
+    expect(await storedValue(probe.id, "air.temperature", beforeMs)).toBe(22); // stored before: as measured
+    expect(await storedValue(probe.id, "air.temperature", afterMs)).toBeCloseTo(21.6, 10);
+    expect(await storedValue(probe.id, "medium.moisture", afterMs)).toBeCloseTo(1.1 * 0.4 + 0.02, 10);
+    expect(await storedValue(probe.id, "air.humidity", afterMs)).toBe(70); // {0, 1} is no calibration
+    expect(await storedValue(probe.id, "battery", afterMs)).toBe(80);
 
     const listed = sensorsResponseSchema.parse((await api().get("/api/sensors").auth(admin, { type: "bearer" }).expect(200)).body).sensors.find((s) => s.id === probe.id);
     expect(listed?.calibration).toEqual({ "air.temperature": { offset: -0.4, gain: 1 }, "medium.moisture": { offset: 0.02, gain: 1.1 } });
@@ -82,8 +80,8 @@ describe("sensor calibration (offset and gain per quantity)", () => {
       { n: "air.temperature", u: "Cel", v: 200 },
     ]);
     await waitFor(async () => storedValue(probe.id, "air.humidity", t));
-    expect(storedValue(probe.id, "air.humidity", t)).toBe(100);
-    expect(storedValue(probe.id, "air.temperature", t)).toBeUndefined();
+    expect(await storedValue(probe.id, "air.humidity", t)).toBe(100);
+    expect(await storedValue(probe.id, "air.temperature", t)).toBeUndefined();
     expect(server.metrics.readingsRejected.get({ reason: "out-of-range" })).toBe(refusedBefore + 1);
   });
 

@@ -106,6 +106,12 @@ describe("events between instances (LISTEN/NOTIFY)", () => {
     expect(readingsOf(seenB)).toEqual(rows);
     // Order is kept: the alert event comes after the whole batch.
     expect(seenB[seenB.length - 1]).toEqual({ type: "alerts", alertIds: [7] });
+    // The sender handled its own events once, when published: their echo is dropped. Notifications
+    // arrive in commit order, so once B's event reaches A, A's own echoes have arrived before it.
+    busB.publish({ type: "windows" });
+    await until(() => seenA.some((e) => e.type === "windows"), 5000);
+    expect(readingsOf(seenA)).toEqual(rows);
+    expect(seenA.filter((e) => e.type === "alerts")).toHaveLength(1);
     await busA.close();
     await busB.close();
   });
@@ -121,8 +127,12 @@ describe("events between instances (LISTEN/NOTIFY)", () => {
     await admin.query(`SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE application_name = 'benchwarden-listener' AND pid <> pg_backend_pid()`);
     await admin.end();
     await until(() => seen.some((e) => e.type === "resync"), 10_000);
-    bus.publish({ type: "windows" });
+    // Another instance's event (the bus's own go to its handlers without the listener).
+    const other = new PostgresEventBus(postgresPool(await open()), url, logger);
+    await other.start();
+    other.publish({ type: "windows" });
     await until(() => seen.some((e) => e.type === "windows"), 5000);
+    await other.close();
     await bus.close();
   });
 });

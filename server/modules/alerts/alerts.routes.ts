@@ -3,8 +3,9 @@ import { z } from "zod";
 import { acknowledgeInputSchema, alertsQuerySchema } from "../../../shared/schemas/alerts.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { AlertsService } from "./alerts.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 const tokenParams = z.object({ token: z.string().min(10).max(4000) });
 
 /** Roles that may say "I've got it" (PRODUCT.md §3: growers acknowledge; managers and admins can too). */

@@ -31,7 +31,7 @@ export class AlertsService {
     if (query.kind) where.kind = query.kind;
     if (query.benchId) where.benchId = query.benchId;
     await this.layout.reload();
-    let rows = await this.dataSource.getRepository(AlertEntity).find({ where, order: { sinceMs: "DESC" }, take: query.fromMs !== undefined || query.toMs !== undefined ? 5000 : query.limit });
+    let rows = await this.dataSource.getRepository(AlertEntity).find({ where, order: { sinceMs: "DESC", id: "DESC" }, take: query.fromMs !== undefined || query.toMs !== undefined ? 5000 : query.limit });
     // Open at some moment of the range: began before its end, and not cleared before its start.
     if (query.toMs !== undefined) rows = rows.filter((a) => a.sinceMs < query.toMs!);
     if (query.fromMs !== undefined) rows = rows.filter((a) => a.clearedAtMs === null || a.clearedAtMs >= query.fromMs!);
@@ -47,7 +47,7 @@ export class AlertsService {
 
   async views(ids: number[]): Promise<AlertView[]> {
     if (ids.length === 0) return [];
-    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { id: In(ids) } });
+    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { id: In(ids) }, order: { id: "ASC" } });
     return rows.map((a) => this.view(a));
   }
 
@@ -58,7 +58,7 @@ export class AlertsService {
 
   /** Open (not cleared) alerts per bench, for the dashboard. */
   async openByBench(): Promise<Map<number, AlertView[]>> {
-    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { clearedAtMs: IsNull(), phase: Not("cleared") }, order: { sinceMs: "ASC" } });
+    const rows = await this.dataSource.getRepository(AlertEntity).find({ where: { clearedAtMs: IsNull(), phase: Not("cleared") }, order: { sinceMs: "ASC", id: "ASC" } });
     const byBench = new Map<number, AlertView[]>();
     for (const r of rows) byBench.set(r.benchId, [...(byBench.get(r.benchId) ?? []), this.view(r)]);
     return byBench;

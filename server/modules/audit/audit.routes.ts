@@ -4,8 +4,9 @@ import { auditQuerySchema, type AuditResponse } from "../../../shared/schemas/au
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import { notFound } from "../../lib/errors.js";
 import type { AuditService } from "./audit.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 
 /** The audit trail, readable by every signed-in role (a viewer sees everything, changes nothing). */
 export function auditRoutes(table: RouteTable, audit: AuditService): Router {

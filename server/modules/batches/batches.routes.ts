@@ -12,6 +12,7 @@ import {
 } from "../../../shared/schemas/batches.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { BatchesService } from "./batches.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
 /**
  * Who records batches, observations, photos and walk-throughs (PRODUCT.md §3): growers, and the
@@ -19,7 +20,7 @@ import type { BatchesService } from "./batches.service.js";
  */
 export const BATCH_RECORDERS: readonly Role[] = ["admin", "manager", "grower"];
 
-export const idParams = z.object({ id: z.coerce.number().int().positive() });
+export const idParams = z.object({ id: rowIdParamSchema });
 
 export function batchesRoutes(table: RouteTable, batches: BatchesService): Router {
   const r = table.router("/api", Router());

@@ -52,7 +52,9 @@ export function benchLabel(context: { bench: Bench; zone: Zone }): string {
   return `${context.zone.name} › ${context.bench.name}`;
 }
 
+/** A unique index refused the row (a racing retry stored it first), on either database. */
 export function isUniqueViolation(err: unknown): boolean {
   const code = (err as { code?: string; driverError?: { code?: string } } | null)?.driverError?.code ?? (err as { code?: string } | null)?.code;
+  if (code === "23505") return true; // PostgreSQL's SQLSTATE unique_violation
   return typeof code === "string" && code.startsWith("SQLITE_CONSTRAINT") && /UNIQUE/i.test(String((err as Error).message));
 }

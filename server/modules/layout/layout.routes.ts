@@ -18,6 +18,7 @@ import { sensorIdSchema } from "../../../shared/schemas/sensors.js";
 import { ADMIN_ONLY, EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { SensorsService } from "../sensors/sensors.service.js";
 import type { LayoutService } from "./layout.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
 /**
  * Who changes the layout (PRODUCT.md §3, §5): sites and zones are the admin's (a zone is a house
@@ -27,7 +28,7 @@ import type { LayoutService } from "./layout.service.js";
  */
 export const BENCH_EDITORS: readonly Role[] = ["admin", "manager"];
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 const sensorParams = z.object({ id: sensorIdSchema });
 
 export function layoutRoutes(table: RouteTable, layout: LayoutService, sensors: SensorsService): Router {

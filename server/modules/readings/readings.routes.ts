@@ -3,9 +3,10 @@ import { z } from "zod";
 import { seriesQuerySchema, type SeriesQuery } from "../../../shared/schemas/readings.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { ReadingsService } from "./readings.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const benchParamsSchema = z.object({ benchId: z.coerce.number().int().positive() });
-const zoneParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+const benchParamsSchema = z.object({ benchId: rowIdParamSchema });
+const zoneParamsSchema = z.object({ id: rowIdParamSchema });
 
 /** A query given as plain milliseconds reads as a number, not a date string. */
 function seriesQuery(query: Record<string, unknown>): SeriesQuery {

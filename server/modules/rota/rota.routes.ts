@@ -3,8 +3,9 @@ import { z } from "zod";
 import { dutyShiftInputSchema, siteAlertTimingInputSchema } from "../../../shared/schemas/alerts.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { RotaService } from "./rota.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 /** The rota and when the managers are told are the manager's to set (PRODUCT.md §5), and the admin's. */
 const ROTA_EDITORS = ["admin", "manager"] as const;
 

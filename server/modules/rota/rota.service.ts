@@ -98,11 +98,11 @@ export class RotaService {
   }
 
   async rota(): Promise<DutyRotaResponse> {
-    const shifts = await this.dataSource.getRepository(DutyShiftEntity).find({ order: { isFallback: "ASC", startMinute: "ASC" } });
-    const zones = await this.dataSource.getRepository(ZoneEntity).find({ where: { archivedAtMs: IsNull() }, order: { position: "ASC" } });
+    const shifts = await this.dataSource.getRepository(DutyShiftEntity).find({ order: { isFallback: "ASC", startMinute: "ASC", id: "ASC" } });
+    const zones = await this.dataSource.getRepository(ZoneEntity).find({ where: { archivedAtMs: IsNull() }, order: { position: "ASC", id: "ASC" } });
     const sites = await this.dataSource.getRepository(SiteEntity).find({ order: { id: "ASC" } });
     const timeZone = sites[0]?.timeZone ?? "UTC";
-    const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false } });
+    const users = await this.dataSource.getRepository(UserEntity).find({ where: { disabled: false }, order: { id: "ASC" } });
     const managers = users.filter((u) => u.role === "manager");
     const onDutyNow = zones.map((zone) => {
       const ids = usersOnDuty(shifts, zone.id, this.now(), timeZone);

@@ -15,8 +15,9 @@ import {
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import { BATCH_RECORDERS, idParams } from "../batches/batches.routes.js";
 import type { RoundsService } from "./rounds.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const benchParams = z.object({ id: z.coerce.number().int().positive(), benchId: z.coerce.number().int().positive() });
+const benchParams = z.object({ id: rowIdParamSchema, benchId: rowIdParamSchema });
 
 /** Walk-throughs: walked by growers, managers and admins; read by every signed-in role. */
 export function roundsRoutes(table: RouteTable, rounds: RoundsService): Router {

@@ -438,7 +438,7 @@ export class RoundsService {
   }
 
   private async buildSummary(round: WalkRoundRecord, finishedAtMs: number, finishedBy: { userId: number; name: string }, manager: EntityManager): Promise<Omit<RoundSummary, "mailedTo">> {
-    const checks = await manager.getRepository(WalkRoundBenchEntity).find({ where: { roundId: round.id }, order: { checkedAtMs: "ASC" } });
+    const checks = await manager.getRepository(WalkRoundBenchEntity).find({ where: { roundId: round.id }, order: { checkedAtMs: "ASC", id: "ASC" } });
     const scope = await this.scope(round, checks);
     const benchIds = scope.benches.map((s) => s.bench.id);
     const entryOf = new Map(scope.benches.map((s) => [s.bench.id, s]));

@@ -8,8 +8,9 @@ import {
 } from "../../../shared/schemas/auth.js";
 import { ADMIN_ONLY, type RouteTable } from "../../lib/auth.js";
 import type { UsersService } from "./users.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 const tokenParams = z.object({ token: z.string().min(10).max(2000) });
 
 export function usersRoutes(table: RouteTable, users: UsersService): Router {

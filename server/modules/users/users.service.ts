@@ -58,7 +58,7 @@ export class UsersService {
   }
 
   async list(): Promise<User[]> {
-    return (await this.users.find({ order: { name: "ASC" } })).map(toUserView);
+    return (await this.users.find({ order: { name: "ASC", id: "ASC" } })).map(toUserView);
   }
 
   /** Creates a user with a password right away (demo seed, the admin:create CLI). */

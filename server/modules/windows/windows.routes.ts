@@ -12,11 +12,12 @@ import {
 } from "../../../shared/schemas/windows.js";
 import { EVERYONE_SIGNED_IN, type RouteTable } from "../../lib/auth.js";
 import type { WindowSettingsService } from "./window-settings.service.js";
+import { rowIdParamSchema } from "../../../shared/schemas/ids.js";
 
 /** Windows, bench overrides, margins and presets are the manager's (PRODUCT.md §3), and the admin's. */
 export const WINDOW_EDITORS: readonly Role[] = ["admin", "manager"];
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = z.object({ id: rowIdParamSchema });
 const presetParams = z.object({ id: z.string().min(1).max(40) });
 
 export function windowsRoutes(table: RouteTable, settings: WindowSettingsService): Router {
