@@ -2,7 +2,7 @@ import type pg from "pg";
 import type { Quantity } from "../../../shared/schemas/quantities.js";
 import type { SeriesPoint } from "../../../shared/schemas/readings.js";
 import type { ReadingStore } from "./reading-store.js";
-import { edgeMinutes, newestPerSeries, rollupCellsOf, ROLLUP_RESOLUTIONS_MS, seriesTierBounds, type LatestRow, type ReadingRow } from "./readings.repository.js";
+import { edgeMinutes, groupSeriesRows, newestPerSeries, rollupCellsOf, ROLLUP_RESOLUTIONS_MS, seriesTierBounds, type LatestRow, type ReadingRow } from "./readings.repository.js";
 
 const MINUTE_MS = 60_000;
 const HOUR_MS = 3_600_000;
@@ -215,22 +215,14 @@ export class PostgresReadingsRepository implements ReadingStore {
 
   async seriesOfBenches(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number): Promise<Map<number, Map<Quantity, SeriesPoint[]>>> {
     await this.refreshStaleRollups();
-    const out = new Map<number, Map<Quantity, SeriesPoint[]>>();
-    if (benchIds.length === 0 || quantities.length === 0) return out;
+    if (benchIds.length === 0 || quantities.length === 0) return new Map();
     const bounds = await this.tierBoundsOverGoneMinutes(benchIds, quantities, fromMs, toMs, bucketMs);
     const { rows } = await this.pool.query<BucketRow & { benchId: number; quantity: Quantity }>({
       name: "readings:series-of-benches",
       text: SELECT_ZONE_SERIES,
       values: [...this.tierValues(fromMs, toMs, bucketMs, bounds), benchIds, quantities],
     });
-    for (const r of rows) {
-      let bench = out.get(r.benchId);
-      if (!bench) out.set(r.benchId, (bench = new Map()));
-      let points = bench.get(r.quantity);
-      if (!points) bench.set(r.quantity, (points = []));
-      points.push({ timeMs: fromMs + r.bucket * bucketMs, min: r.min, mean: r.mean, max: r.max, count: r.count });
-    }
-    return out;
+    return groupSeriesRows(rows, fromMs, bucketMs);
   }
 
   /** PostgreSQL's plan for seriesOfBenches (EXPLAIN, one line per step), to check it reaches both tables through their indexes. */

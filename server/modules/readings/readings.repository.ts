@@ -50,6 +50,23 @@ function tierBounds(fromMs: number, toMs: number, bucketMs: number) {
   return { coarseMs, minuteFromMs, minuteToMs, coarseFromMs, coarseToMs };
 }
 
+/** Bucket rows of several benches and quantities (ordered by bench, quantity, bucket) as series per bench and quantity. */
+export function groupSeriesRows(
+  rows: readonly { benchId: number; quantity: Quantity; bucket: number; min: number; mean: number; max: number; count: number }[],
+  fromMs: number,
+  bucketMs: number,
+): Map<number, Map<Quantity, SeriesPoint[]>> {
+  const out = new Map<number, Map<Quantity, SeriesPoint[]>>();
+  for (const r of rows) {
+    let bench = out.get(r.benchId);
+    if (!bench) out.set(r.benchId, (bench = new Map()));
+    let points = bench.get(r.quantity);
+    if (!points) bench.set(r.quantity, (points = []));
+    points.push({ timeMs: fromMs + r.bucket * bucketMs, min: r.min, mean: r.mean, max: r.max, count: r.count });
+  }
+  return out;
+}
+
 /** The minutes seriesTierBounds may ask isGone about: those the range starts or ends inside. */
 export function edgeMinutes(fromMs: number, toMs: number): number[] {
   const startMinuteMs = Math.floor(fromMs / MINUTE_MS) * MINUTE_MS;
@@ -281,8 +298,7 @@ export class ReadingsRepository {
    */
   seriesOfBenches(benchIds: readonly number[], quantities: readonly Quantity[], fromMs: number, toMs: number, bucketMs: number): Map<number, Map<Quantity, SeriesPoint[]>> {
     this.refreshStaleRollups();
-    const out = new Map<number, Map<Quantity, SeriesPoint[]>>();
-    if (benchIds.length === 0 || quantities.length === 0) return out;
+    if (benchIds.length === 0 || quantities.length === 0) return new Map();
     const rows = this.selectZoneSeries.all(this.zoneSeriesParams(benchIds, quantities, fromMs, toMs, bucketMs)) as {
       benchId: number;
       quantity: Quantity;
@@ -292,14 +308,7 @@ export class ReadingsRepository {
       max: number;
       count: number;
     }[];
-    for (const r of rows) {
-      let bench = out.get(r.benchId);
-      if (!bench) out.set(r.benchId, (bench = new Map()));
-      let points = bench.get(r.quantity);
-      if (!points) bench.set(r.quantity, (points = []));
-      points.push({ timeMs: fromMs + r.bucket * bucketMs, min: r.min, mean: r.mean, max: r.max, count: r.count });
-    }
-    return out;
+    return groupSeriesRows(rows, fromMs, bucketMs);
   }
 
   /** SQLite's plan for seriesOfBenches (EXPLAIN QUERY PLAN, one line per step), to check it uses the indexes. */
